@@ -1,0 +1,3 @@
+export default function Landing() {
+  return <main className="p-8">Sowcast</main>;
+}

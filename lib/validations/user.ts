@@ -1,0 +1,18 @@
+import { z } from 'zod';
+import { requiredText } from './common';
+import { emailSchema } from './membership';
+
+export const signUpSchema = z.object({
+  name: requiredText('Name', 80),
+  email: emailSchema,
+  password: z
+    .string({ error: 'Password is required' })
+    .min(10, 'Password must be at least 10 characters')
+    .max(200, 'Password must be at most 200 characters'),
+});
+export type SignUpInput = z.infer<typeof signUpSchema>;
+
+export const signInSchema = z.object({
+  email: emailSchema,
+  password: z.string().min(1, 'Password is required').max(200, 'Password must be at most 200 characters'),
+});
