@@ -2,7 +2,7 @@
 // postgresql and chromium), starts a throwaway PostgreSQL cluster on a free loopback port, builds and
 // starts Sowcast against it, runs vitest (unit, integration, end-to-end), then removes everything.
 // Extra arguments go to vitest: `npm test -- tests/integration/plots.test.ts`.
-import { existsSync, mkdirSync, mkdtempSync, rmSync } from 'node:fs';
+import { chmodSync, existsSync, mkdirSync, mkdtempSync, rmSync } from 'node:fs';
 import { randomBytes } from 'node:crypto';
 import os from 'node:os';
 import path from 'node:path';
@@ -35,6 +35,8 @@ async function main() {
 
     // A cluster of our own under the system temp folder, readable by the postgres user.
     workDir = mkdtempSync(path.join(os.tmpdir(), 'sowcast-test-'));
+    // mkdtemp makes the folder 0700; run as root, the server runs as `postgres` and must get through it.
+    chmodSync(workDir, 0o755);
     const pgPort = await freePort();
     db = cluster({ dir: path.join(workDir, 'pg'), port: pgPort, fast: true });
     db.start();

@@ -14,7 +14,8 @@ export async function getMembershipRole(propertyId: string, userId: string): Pro
 export interface MemberDto {
   userId: string;
   name: string;
-  email: string;
+  /** Shown to owners only; null for everyone else. */
+  email: string | null;
   role: PropertyRole;
   since: string;
 }

@@ -31,7 +31,8 @@ export const plotSchema = z.object({
   notes: optionalText('Notes', 4000),
 });
 
-export const plotUpdateSchema = plotSchema.partial();
+// An unknown key is refused rather than ignored, so a misspelt field never looks saved.
+export const plotUpdateSchema = plotSchema.partial().strict();
 
 export type PlotInput = z.infer<typeof plotSchema>;
 export type PlotFormValues = z.input<typeof plotSchema>;

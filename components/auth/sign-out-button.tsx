@@ -1,0 +1,24 @@
+'use client';
+
+import { LogOut } from 'lucide-react';
+import { signOut } from 'next-auth/react';
+import { useState } from 'react';
+import { Button } from '@/components/ui/button';
+
+export function SignOutButton() {
+  const [pending, setPending] = useState(false);
+  return (
+    <Button
+      variant="secondary"
+      size="sm"
+      pending={pending}
+      onClick={() => {
+        setPending(true);
+        void signOut({ callbackUrl: '/' });
+      }}
+    >
+      {pending ? null : <LogOut className="size-4" aria-hidden="true" />}
+      Sign out
+    </Button>
+  );
+}

@@ -1,0 +1,38 @@
+import { mkdirSync } from 'node:fs';
+import path from 'node:path';
+import { chromium, type Browser, type Page } from 'playwright-core';
+
+export const baseUrl = () => {
+  const url = process.env.SOWCAST_BASE_URL;
+  if (!url) throw new Error('SOWCAST_BASE_URL is not set: run browser tests through `npm test`');
+  return url;
+};
+
+/** Debian's Chromium, driven by playwright-core (never a downloaded browser). */
+export function launchBrowser(): Promise<Browser> {
+  return chromium.launch({
+    executablePath: process.env.CHROMIUM_PATH ?? '/usr/bin/chromium',
+    args: [
+      '--headless', '--no-sandbox', '--disable-gpu', '--disable-quic', '--no-first-run',
+      '--disable-background-networking', '--disable-component-update', '--disable-sync',
+    ],
+  });
+}
+
+export const DESKTOP = { width: 1280, height: 900 };
+export const PHONE = { width: 390, height: 844 };
+
+/** Screenshots are test artifacts (not committed), to be looked at after a run. */
+export async function screenshot(page: Page, name: string) {
+  const dir = process.env.TEST_ARTIFACTS_DIR ?? path.resolve('.test-artifacts');
+  mkdirSync(dir, { recursive: true });
+  await page.screenshot({ path: path.join(dir, `${name}.png`), fullPage: true });
+}
+
+export async function signIn(page: Page, email: string, password: string) {
+  await page.goto(`${baseUrl()}/sign-in`);
+  await page.getByLabel('E-mail').fill(email);
+  await page.getByLabel('Password').fill(password);
+  await page.getByRole('button', { name: 'Sign in' }).click();
+  await page.waitForURL((url) => !url.pathname.startsWith('/sign-in'));
+}

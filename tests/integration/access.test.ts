@@ -1,0 +1,631 @@
+// The role matrix for every JSON route handler, over real HTTP with real sessions.
+// Expected behaviour (DEVELOPERS.md, "Access control"): signed out → 401; not a member → 404 (the property's
+// existence is never revealed); a member whose role is too low → 403. Owner ⊃ manager ⊃ member ⊃ viewer.
+// To add a route: add one entry to CASES.
+import { createHash, randomUUID } from 'node:crypto';
+import { readdirSync, readFileSync } from 'node:fs';
+import path from 'node:path';
+import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import type { Kysely } from 'kysely';
+import type { Database } from '@/db/database';
+import {
+  addMember, Client, createPlot, createProperty, invite, plotBody, propertyBody, signedInUser, uniqueEmail,
+  type ApiResponse, type TestUser,
+} from '../support/http';
+import { countPlotsOf, testDb } from '../support/db';
+
+const ACTORS = ['owner', 'manager', 'member', 'viewer', 'outsider', 'signedOut'] as const;
+type Actor = (typeof ACTORS)[number];
+type Expected = Record<Actor, number>;
+type Person = { user: TestUser; client: Client };
+
+// The shapes of the matrix, named once.
+const READ: Expected = { owner: 200, manager: 200, member: 200, viewer: 200, outsider: 404, signedOut: 401 };
+const managerWrite = (ok: number): Expected => ({ owner: ok, manager: ok, member: 403, viewer: 403, outsider: 404, signedOut: 401 });
+const ownerOnly = (ok: number): Expected => ({ owner: ok, manager: 403, member: 403, viewer: 403, outsider: 404, signedOut: 401 });
+const anySignedIn = (ok: number): Expected => ({ owner: ok, manager: ok, member: ok, viewer: ok, outsider: ok, signedOut: 401 });
+const anyone = (ok: number): Expected => ({ owner: ok, manager: ok, member: ok, viewer: ok, outsider: ok, signedOut: ok });
+
+interface Fixture {
+  db: Kysely<Database>;
+  people: Record<Exclude<Actor, 'signedOut'> | 'spare' | 'ownerB', Person>;
+  clients: Record<Actor, Client>;
+  /** Property A: owner, manager, member, viewer (and spare as a member). */
+  propertyA: { id: string; name: string };
+  plotA: { id: string; name: string };
+  /** Property B: another owner, none of A's people. */
+  propertyB: { id: string; name: string };
+  plotB: { id: string; name: string };
+}
+
+interface Target {
+  path: string;
+  body?: unknown;
+  /** Anything the checks need to know about what the target set up. */
+  context?: Record<string, string>;
+}
+
+interface Case {
+  method: 'GET' | 'POST' | 'PATCH' | 'DELETE';
+  route: string;
+  expect: Expected;
+  /** The request to send; may create fresh rows first when the request changes or removes things. */
+  target: (fx: Fixture, actor: Actor) => Target | Promise<Target>;
+  /** Database state the request may change: it must be identical after a refused request. */
+  snapshot?: (fx: Fixture, target: Target) => Promise<unknown>;
+  /** Checks on an allowed request's answer. */
+  check?: (response: ApiResponse, fx: Fixture, actor: Actor, target: Target) => void | Promise<void>;
+}
+
+/** A property of A's owner with the same four roles (and spare as a member), for requests that change people. */
+async function propertyWithRoles(fx: Fixture) {
+  const property = await createProperty(fx.people.owner.client);
+  await Promise.all([
+    addMember(fx.people.owner.client, property.id, fx.people.manager, 'manager'),
+    addMember(fx.people.owner.client, property.id, fx.people.member, 'member'),
+    addMember(fx.people.owner.client, property.id, fx.people.viewer, 'viewer'),
+    addMember(fx.people.owner.client, property.id, fx.people.spare, 'member'),
+  ]);
+  return property;
+}
+
+const roleOf = async (fx: Fixture, propertyId: string, userId: string) =>
+  (
+    await fx.db
+      .selectFrom('memberships')
+      .select('role')
+      .where('property_id', '=', propertyId)
+      .where('user_id', '=', userId)
+      .executeTakeFirst()
+  )?.role ?? null;
+
+const ROLE_OF_ACTOR: Partial<Record<Actor, string>> = { owner: 'owner', manager: 'manager', member: 'member', viewer: 'viewer' };
+
+const CASES: Case[] = [
+  {
+    method: 'GET',
+    route: '/api/properties',
+    expect: anySignedIn(200),
+    target: () => ({ path: '/api/properties' }),
+    check: (res, fx, actor) => {
+      const mine = res.body.properties.find((p: { id: string }) => p.id === fx.propertyA.id);
+      if (actor === 'outsider') expect(mine).toBeUndefined();
+      else expect(mine?.role).toBe(ROLE_OF_ACTOR[actor]);
+      expect(res.body.properties.map((p: { id: string }) => p.id)).not.toContain(fx.propertyB.id);
+    },
+  },
+  {
+    method: 'POST',
+    route: '/api/properties',
+    expect: anySignedIn(201),
+    target: () => ({ path: '/api/properties', body: propertyBody() }),
+    check: async (res, fx, actor) => {
+      expect(await roleOf(fx, res.body.property.id, fx.people[actor as 'owner'].user.id)).toBe('owner');
+    },
+  },
+  {
+    method: 'GET',
+    route: '/api/properties/[propertyId]',
+    expect: READ,
+    target: (fx) => ({ path: `/api/properties/${fx.propertyA.id}` }),
+    check: (res, fx, actor) => {
+      expect(res.body.property.id).toBe(fx.propertyA.id);
+      expect(res.body.role).toBe(ROLE_OF_ACTOR[actor]);
+    },
+  },
+  {
+    method: 'PATCH',
+    route: '/api/properties/[propertyId]',
+    expect: managerWrite(200),
+    target: (fx, actor) => ({ path: `/api/properties/${fx.propertyA.id}`, body: { landownerContact: `set by ${actor} ${randomUUID()}` } }),
+    snapshot: (fx) => fx.db.selectFrom('properties').selectAll().where('id', '=', fx.propertyA.id).executeTakeFirst(),
+    check: async (res, fx, _actor, target) => {
+      const row = await fx.db.selectFrom('properties').select('landowner_contact').where('id', '=', fx.propertyA.id).executeTakeFirst();
+      expect(row?.landowner_contact).toBe((target.body as { landownerContact: string }).landownerContact);
+      expect(res.body.property.landownerContact).toBe(row?.landowner_contact);
+    },
+  },
+  {
+    method: 'DELETE',
+    route: '/api/properties/[propertyId]',
+    expect: ownerOnly(204),
+    target: async (fx) => {
+      const property = await propertyWithRoles(fx);
+      await createPlot(fx.people.owner.client, property.id);
+      return { path: `/api/properties/${property.id}`, context: { propertyId: property.id } };
+    },
+    snapshot: async (fx, t) => ({
+      property: await fx.db.selectFrom('properties').select('id').where('id', '=', t.context!.propertyId).executeTakeFirst(),
+      plots: await countPlotsOf(fx.db, t.context!.propertyId),
+    }),
+    check: async (_res, fx, _actor, t) => {
+      expect(await fx.db.selectFrom('properties').select('id').where('id', '=', t.context!.propertyId).executeTakeFirst()).toBeUndefined();
+      expect(await countPlotsOf(fx.db, t.context!.propertyId)).toBe(0);
+    },
+  },
+  {
+    method: 'GET',
+    route: '/api/properties/[propertyId]/plots',
+    expect: READ,
+    target: (fx) => ({ path: `/api/properties/${fx.propertyA.id}/plots` }),
+    check: (res, fx) => {
+      const ids = res.body.plots.map((p: { id: string }) => p.id);
+      expect(ids).toContain(fx.plotA.id);
+      expect(ids).not.toContain(fx.plotB.id);
+    },
+  },
+  {
+    method: 'POST',
+    route: '/api/properties/[propertyId]/plots',
+    expect: managerWrite(201),
+    target: (fx) => ({ path: `/api/properties/${fx.propertyA.id}/plots`, body: plotBody() }),
+    snapshot: (fx) => countPlotsOf(fx.db, fx.propertyA.id),
+    check: (res, fx) => expect(res.body.plot.propertyId).toBe(fx.propertyA.id),
+  },
+  {
+    method: 'GET',
+    route: '/api/plots/[plotId]',
+    expect: READ,
+    target: (fx) => ({ path: `/api/plots/${fx.plotA.id}` }),
+    check: (res, fx, actor) => {
+      expect(res.body.plot.id).toBe(fx.plotA.id);
+      expect(res.body.role).toBe(ROLE_OF_ACTOR[actor]);
+    },
+  },
+  {
+    method: 'PATCH',
+    route: '/api/plots/[plotId]',
+    expect: managerWrite(200),
+    target: (fx, actor) => ({ path: `/api/plots/${fx.plotA.id}`, body: { notes: `noted by ${actor} ${randomUUID()}` } }),
+    snapshot: (fx) => fx.db.selectFrom('plots').selectAll().where('id', '=', fx.plotA.id).executeTakeFirst(),
+    check: (res, _fx, _actor, target) => expect(res.body.plot.notes).toBe((target.body as { notes: string }).notes),
+  },
+  {
+    method: 'DELETE',
+    route: '/api/plots/[plotId]',
+    expect: managerWrite(204),
+    target: async (fx) => {
+      const plot = await createPlot(fx.people.owner.client, fx.propertyA.id);
+      return { path: `/api/plots/${plot.id}`, context: { plotId: plot.id } };
+    },
+    snapshot: (fx, t) => fx.db.selectFrom('plots').selectAll().where('id', '=', t.context!.plotId).executeTakeFirst(),
+    check: async (_res, fx, _actor, t) =>
+      expect(await fx.db.selectFrom('plots').select('id').where('id', '=', t.context!.plotId).executeTakeFirst()).toBeUndefined(),
+  },
+  {
+    method: 'GET',
+    route: '/api/properties/[propertyId]/members',
+    expect: READ,
+    target: (fx) => ({ path: `/api/properties/${fx.propertyA.id}/members` }),
+    check: (res, fx, actor) => {
+      const members = res.body.members as { userId: string; role: string; email: string | null }[];
+      expect(members.map((m) => m.role).sort()).toEqual(['manager', 'member', 'member', 'owner', 'viewer']);
+      const manager = members.find((m) => m.userId === fx.people.manager.user.id);
+      // E-mail addresses are only for the people who manage membership.
+      expect(manager?.email).toBe(actor === 'owner' ? fx.people.manager.user.email : null);
+    },
+  },
+  {
+    method: 'PATCH',
+    route: '/api/properties/[propertyId]/members/[userId]',
+    expect: ownerOnly(200),
+    target: async (fx) => {
+      const property = await propertyWithRoles(fx);
+      return {
+        path: `/api/properties/${property.id}/members/${fx.people.spare.user.id}`,
+        body: { role: 'manager' },
+        context: { propertyId: property.id },
+      };
+    },
+    snapshot: (fx, t) => roleOf(fx, t.context!.propertyId, fx.people.spare.user.id),
+    check: async (_res, fx, _actor, t) => expect(await roleOf(fx, t.context!.propertyId, fx.people.spare.user.id)).toBe('manager'),
+  },
+  {
+    method: 'DELETE',
+    route: '/api/properties/[propertyId]/members/[userId]',
+    expect: ownerOnly(204),
+    target: async (fx) => {
+      const property = await propertyWithRoles(fx);
+      return { path: `/api/properties/${property.id}/members/${fx.people.spare.user.id}`, context: { propertyId: property.id } };
+    },
+    snapshot: (fx, t) => roleOf(fx, t.context!.propertyId, fx.people.spare.user.id),
+    check: async (_res, fx, _actor, t) => expect(await roleOf(fx, t.context!.propertyId, fx.people.spare.user.id)).toBeNull(),
+  },
+  {
+    method: 'GET',
+    route: '/api/properties/[propertyId]/invitations',
+    expect: ownerOnly(200),
+    target: (fx) => ({ path: `/api/properties/${fx.propertyA.id}/invitations` }),
+    check: (res, fx) => {
+      const invitations = res.body.invitations as Record<string, unknown>[];
+      const emails = invitations.map((i) => i.email);
+      expect(emails).toContain(fx.people.viewer.user.email);
+      // The list never carries a token or its hash.
+      for (const i of invitations) {
+        expect(Object.keys(i)).not.toContain('token');
+        expect(Object.keys(i)).not.toContain('tokenHash');
+        expect(JSON.stringify(i)).not.toMatch(/[0-9a-f]{64}/);
+      }
+    },
+  },
+  {
+    method: 'POST',
+    route: '/api/properties/[propertyId]/invitations',
+    expect: ownerOnly(201),
+    target: (fx) => ({ path: `/api/properties/${fx.propertyA.id}/invitations`, body: { email: uniqueEmail('invitee'), role: 'member' } }),
+    snapshot: async (fx) =>
+      Number(
+        (
+          await fx.db
+            .selectFrom('invitations')
+            .select((eb) => eb.fn.countAll<number>().as('n'))
+            .where('property_id', '=', fx.propertyA.id)
+            .executeTakeFirstOrThrow()
+        ).n,
+      ),
+    check: (res, _fx, _actor, target) => {
+      expect(res.body.invitation.email).toBe((target.body as { email: string }).email);
+      expect(res.body.link).toMatch(/\/invitations\/[A-Za-z0-9_-]{20,}$/);
+    },
+  },
+  {
+    method: 'DELETE',
+    route: '/api/properties/[propertyId]/invitations/[invitationId]',
+    expect: ownerOnly(204),
+    target: async (fx) => {
+      const invitation = await invite(fx.people.owner.client, fx.propertyA.id, uniqueEmail('revoked'), 'viewer');
+      return { path: `/api/properties/${fx.propertyA.id}/invitations/${invitation.id}`, context: { invitationId: invitation.id } };
+    },
+    snapshot: (fx, t) => fx.db.selectFrom('invitations').select('revoked_at').where('id', '=', t.context!.invitationId).executeTakeFirst(),
+    check: async (_res, fx, _actor, t) => {
+      const row = await fx.db.selectFrom('invitations').select('revoked_at').where('id', '=', t.context!.invitationId).executeTakeFirst();
+      expect(row?.revoked_at).toBeInstanceOf(Date);
+    },
+  },
+  {
+    // Holding the secret token is what lets one see the invitation, signed in or not.
+    method: 'GET',
+    route: '/api/invitations/[token]',
+    expect: anyone(200),
+    target: async (fx) => {
+      const email = uniqueEmail('looked-up');
+      const invitation = await invite(fx.people.owner.client, fx.propertyA.id, email, 'member');
+      return { path: `/api/invitations/${invitation.token}`, context: { email } };
+    },
+    check: (res, fx, _actor, t) => {
+      expect(res.body.invitation).toMatchObject({ propertyName: fx.propertyA.name, role: 'member', email: t.context!.email, state: 'open' });
+    },
+  },
+  {
+    // Any signed-in person may accept an invitation addressed to their own e-mail.
+    method: 'POST',
+    route: '/api/invitations/[token]/accept',
+    expect: anySignedIn(200),
+    target: async (fx, actor) => {
+      const property = await createProperty(fx.people.ownerB.client);
+      const email = actor === 'signedOut' ? uniqueEmail('nobody') : fx.people[actor].user.email;
+      const invitation = await invite(fx.people.ownerB.client, property.id, email, 'member');
+      return { path: `/api/invitations/${invitation.token}/accept`, context: { propertyId: property.id, invitationId: invitation.id } };
+    },
+    snapshot: (fx, t) => fx.db.selectFrom('invitations').select(['accepted_at', 'accepted_by']).where('id', '=', t.context!.invitationId).executeTakeFirst(),
+    check: async (res, fx, actor, t) => {
+      expect(res.body).toEqual({ propertyId: t.context!.propertyId, role: 'member' });
+      expect(await roleOf(fx, t.context!.propertyId, fx.people[actor as 'owner'].user.id)).toBe('member');
+    },
+  },
+];
+
+let fx: Fixture;
+
+beforeAll(async () => {
+  const db = testDb();
+  const [owner, manager, member, viewer, outsider, spare, ownerB] = await Promise.all(
+    ['owner', 'manager', 'member', 'viewer', 'outsider', 'spare', 'owner-b'].map((p) => signedInUser(`access-${p}`)),
+  );
+  const propertyA = await createProperty(owner.client, { name: `Access A ${randomUUID()}` });
+  const plotA = await createPlot(owner.client, propertyA.id);
+  await Promise.all([
+    addMember(owner.client, propertyA.id, manager, 'manager'),
+    addMember(owner.client, propertyA.id, member, 'member'),
+    addMember(owner.client, propertyA.id, viewer, 'viewer'),
+    addMember(owner.client, propertyA.id, spare, 'member'),
+  ]);
+  const propertyB = await createProperty(ownerB.client, { name: `Access B ${randomUUID()}` });
+  const plotB = await createPlot(ownerB.client, propertyB.id);
+  const people = { owner, manager, member, viewer, outsider, spare, ownerB };
+  fx = {
+    db,
+    people,
+    clients: {
+      owner: owner.client,
+      manager: manager.client,
+      member: member.client,
+      viewer: viewer.client,
+      outsider: outsider.client,
+      signedOut: new Client('signed out'),
+    },
+    propertyA,
+    plotA,
+    propertyB,
+    plotB,
+  };
+});
+
+afterAll(async () => {
+  await fx?.db.destroy();
+});
+
+// Routes that are not about a property: sign-in (tests/integration/auth.test.ts), sign-up
+// (validation.test.ts, auth.test.ts) and the health probe.
+const OUTSIDE_THE_MATRIX = ['/api/auth/[...nextauth]', '/api/users', '/api/health'];
+
+function routeHandlers(): string[] {
+  const apiDir = path.resolve(__dirname, '../../app/api');
+  const found: string[] = [];
+  for (const entry of readdirSync(apiDir, { recursive: true, encoding: 'utf8' })) {
+    if (path.basename(entry) !== 'route.ts') continue;
+    const route = `/api/${path.dirname(entry).split(path.sep).join('/')}`;
+    const source = readFileSync(path.join(apiDir, entry), 'utf8');
+    for (const m of source.matchAll(/export\s+(?:const|async\s+function|function)\s+(GET|POST|PUT|PATCH|DELETE)\b/g)) {
+      found.push(`${m[1]} ${route}`);
+    }
+    for (const m of source.matchAll(/export\s*\{([^}]*)\}/g)) {
+      for (const name of m[1].matchAll(/\bas\s+(GET|POST|PUT|PATCH|DELETE)\b/g)) found.push(`${name[1]} ${route}`);
+    }
+  }
+  return found.sort();
+}
+
+it('the matrix covers every method of every route handler under app/api', () => {
+  const handlers = routeHandlers().filter((h) => !OUTSIDE_THE_MATRIX.includes(h.split(' ')[1]));
+  expect(handlers.length).toBeGreaterThanOrEqual(18);
+  expect(handlers).toEqual(CASES.map((c) => `${c.method} ${c.route}`).sort());
+});
+
+describe('role matrix: every route handler, every kind of person', () => {
+  for (const c of CASES) {
+    describe(`${c.method} ${c.route}`, () => {
+      for (const actor of ACTORS) {
+        const status = c.expect[actor];
+        it(`${actor} → ${status}`, async () => {
+          const target = await c.target(fx, actor);
+          const before = c.snapshot ? await c.snapshot(fx, target) : undefined;
+          const res = await fx.clients[actor].request(c.method, target.path, target.body === undefined ? {} : { json: target.body });
+          expect(res.status, res.text).toBe(status);
+          if (status >= 400) {
+            expect(typeof res.body.error).toBe('string');
+            if (status === 401) expect(res.body.error).toBe('Sign in first');
+            if (status === 404) {
+              // No leak: the same answer a property that does not exist gets, nothing of A's data.
+              expect(res.body).toEqual({ error: 'Not found' });
+              expect(res.text).not.toContain(fx.propertyA.name);
+            }
+            if (c.snapshot) expect(await c.snapshot(fx, target)).toEqual(before);
+          } else {
+            await c.check?.(res, fx, actor, target);
+          }
+        });
+      }
+    });
+  }
+});
+
+describe('a member of property A using the ids of property B', () => {
+  const MEMBERS = ['owner', 'manager', 'member', 'viewer'] as const;
+  const REQUESTS = [
+    { method: 'GET', path: (f: Fixture) => `/api/plots/${f.plotB.id}` },
+    { method: 'PATCH', path: (f: Fixture) => `/api/plots/${f.plotB.id}`, body: { notes: 'not yours' } },
+    { method: 'DELETE', path: (f: Fixture) => `/api/plots/${f.plotB.id}` },
+    { method: 'GET', path: (f: Fixture) => `/api/properties/${f.propertyB.id}` },
+    { method: 'PATCH', path: (f: Fixture) => `/api/properties/${f.propertyB.id}`, body: { name: 'Taken over' } },
+    { method: 'DELETE', path: (f: Fixture) => `/api/properties/${f.propertyB.id}` },
+    { method: 'GET', path: (f: Fixture) => `/api/properties/${f.propertyB.id}/plots` },
+    { method: 'POST', path: (f: Fixture) => `/api/properties/${f.propertyB.id}/plots`, body: plotBody() },
+    { method: 'GET', path: (f: Fixture) => `/api/properties/${f.propertyB.id}/members` },
+    { method: 'GET', path: (f: Fixture) => `/api/properties/${f.propertyB.id}/invitations` },
+  ] as const;
+
+  for (const actor of MEMBERS) {
+    for (const r of REQUESTS) {
+      it(`${actor} of A: ${r.method} ${r.path({ plotB: { id: '[plot of B]' }, propertyB: { id: '[B]' } } as Fixture)} → 404`, async () => {
+        const plotBefore = await fx.db.selectFrom('plots').selectAll().where('property_id', '=', fx.propertyB.id).execute();
+        const propertyBefore = await fx.db.selectFrom('properties').selectAll().where('id', '=', fx.propertyB.id).executeTakeFirst();
+        const res = await fx.clients[actor].request(r.method, r.path(fx), 'body' in r ? { json: r.body } : {});
+        expect(res.status, res.text).toBe(404);
+        expect(res.body).toEqual({ error: 'Not found' });
+        expect(res.text).not.toContain(fx.plotB.name);
+        expect(await fx.db.selectFrom('plots').selectAll().where('property_id', '=', fx.propertyB.id).execute()).toEqual(plotBefore);
+        expect(await fx.db.selectFrom('properties').selectAll().where('id', '=', fx.propertyB.id).executeTakeFirst()).toEqual(propertyBefore);
+      });
+    }
+  }
+
+  it("B's owner cannot change or remove A's people through B's address", async () => {
+    const owner = fx.people.ownerB.client;
+    const patch = await owner.patch(`/api/properties/${fx.propertyB.id}/members/${fx.people.member.user.id}`, { role: 'viewer' });
+    expect(patch.status).toBe(404);
+    const remove = await owner.delete(`/api/properties/${fx.propertyB.id}/members/${fx.people.member.user.id}`);
+    expect(remove.status).toBe(404);
+    expect(await roleOf(fx, fx.propertyA.id, fx.people.member.user.id)).toBe('member');
+  });
+
+  it("B's owner cannot revoke A's invitation through B's address", async () => {
+    const invitation = await invite(fx.people.owner.client, fx.propertyA.id, uniqueEmail('cross'), 'viewer');
+    const res = await fx.people.ownerB.client.delete(`/api/properties/${fx.propertyB.id}/invitations/${invitation.id}`);
+    expect(res.status).toBe(404);
+    const state = await new Client().get(`/api/invitations/${invitation.token}`);
+    expect(state.body.invitation.state).toBe('open');
+  });
+
+  it('a non-member gets exactly the answer a property that does not exist gets', async () => {
+    const outsider = fx.clients.outsider;
+    const missing = randomUUID();
+    for (const suffix of ['', '/plots', '/members', '/invitations']) {
+      const real = await outsider.get(`/api/properties/${fx.propertyA.id}${suffix}`);
+      const none = await outsider.get(`/api/properties/${missing}${suffix}`);
+      expect([real.status, real.text]).toEqual([none.status, none.text]);
+    }
+    const realPlot = await outsider.get(`/api/plots/${fx.plotA.id}`);
+    const nonePlot = await outsider.get(`/api/plots/${randomUUID()}`);
+    expect([realPlot.status, realPlot.text]).toEqual([nonePlot.status, nonePlot.text]);
+  });
+});
+
+describe('malformed ids in the path answer 404, never 500', () => {
+  const BAD_IDS = ['not-a-uuid', '12345', '00000000-0000-0000-0000-00000000000g', "1' or '1'='1", '%00'];
+  const REQUESTS: { method: string; path: (id: string, f: Fixture) => string; body?: unknown }[] = [
+    { method: 'GET', path: (id) => `/api/properties/${id}` },
+    { method: 'PATCH', path: (id) => `/api/properties/${id}`, body: { name: 'X' } },
+    { method: 'DELETE', path: (id) => `/api/properties/${id}` },
+    { method: 'GET', path: (id) => `/api/properties/${id}/plots` },
+    { method: 'POST', path: (id) => `/api/properties/${id}/plots`, body: plotBody() },
+    { method: 'GET', path: (id) => `/api/plots/${id}` },
+    { method: 'PATCH', path: (id) => `/api/plots/${id}`, body: { notes: 'x' } },
+    { method: 'DELETE', path: (id) => `/api/plots/${id}` },
+    { method: 'GET', path: (id) => `/api/properties/${id}/members` },
+    { method: 'PATCH', path: (id, f) => `/api/properties/${f.propertyA.id}/members/${id}`, body: { role: 'viewer' } },
+    { method: 'DELETE', path: (id, f) => `/api/properties/${f.propertyA.id}/members/${id}` },
+    { method: 'PATCH', path: (id) => `/api/properties/${id}/members/${randomUUID()}`, body: { role: 'viewer' } },
+    { method: 'GET', path: (id) => `/api/properties/${id}/invitations` },
+    { method: 'POST', path: (id) => `/api/properties/${id}/invitations`, body: { email: 'x@example.test', role: 'viewer' } },
+    { method: 'DELETE', path: (id, f) => `/api/properties/${f.propertyA.id}/invitations/${id}` },
+    { method: 'DELETE', path: (id) => `/api/properties/${id}/invitations/${randomUUID()}` },
+    { method: 'GET', path: (id) => `/api/invitations/${id}` },
+    { method: 'POST', path: (id) => `/api/invitations/${id}/accept` },
+  ];
+  for (const r of REQUESTS) {
+    it(`${r.method} ${r.path('{bad}', { propertyA: { id: '[A]' } } as Fixture)}`, async () => {
+      for (const id of BAD_IDS) {
+        const res = await fx.clients.owner.request(r.method, r.path(encodeURIComponent(id), fx), r.body === undefined ? {} : { json: r.body });
+        expect(res.status, `${id}: ${res.text}`).toBe(404);
+        expect(res.body).toEqual({ error: 'Not found' });
+      }
+    });
+  }
+
+  it('a well-formed token that matches no invitation is 404', async () => {
+    const token = randomUUID().replaceAll('-', '');
+    expect((await fx.clients.member.get(`/api/invitations/${token}`)).status).toBe(404);
+    expect((await fx.clients.member.post(`/api/invitations/${token}/accept`)).status).toBe(404);
+  });
+});
+
+describe('owners and people', () => {
+  it('the last owner can be neither demoted nor removed (409), and nothing changes', async () => {
+    const property = await propertyWithRoles(fx);
+    const owner = fx.people.owner;
+    const demote = await owner.client.patch(`/api/properties/${property.id}/members/${owner.user.id}`, { role: 'manager' });
+    expect(demote.status).toBe(409);
+    expect(demote.body.error).toMatch(/at least one owner/);
+    const leave = await owner.client.delete(`/api/properties/${property.id}/members/${owner.user.id}`);
+    expect(leave.status).toBe(409);
+    expect(await roleOf(fx, property.id, owner.user.id)).toBe('owner');
+  });
+
+  it('with a second owner, the first may step down; then the second is the last and is held', async () => {
+    const property = await propertyWithRoles(fx);
+    const { owner, spare } = fx.people;
+    expect((await owner.client.patch(`/api/properties/${property.id}/members/${spare.user.id}`, { role: 'owner' })).status).toBe(200);
+    expect((await owner.client.patch(`/api/properties/${property.id}/members/${owner.user.id}`, { role: 'viewer' })).status).toBe(200);
+    expect(await roleOf(fx, property.id, owner.user.id)).toBe('viewer');
+    // The former owner is now a viewer: 403 on people.
+    expect((await owner.client.get(`/api/properties/${property.id}/invitations`)).status).toBe(403);
+    expect((await spare.client.patch(`/api/properties/${property.id}/members/${spare.user.id}`, { role: 'manager' })).status).toBe(409);
+    expect((await spare.client.delete(`/api/properties/${property.id}/members/${spare.user.id}`)).status).toBe(409);
+    expect(await roleOf(fx, property.id, spare.user.id)).toBe('owner');
+  });
+
+  it('manager, member and viewer may each leave on their own (204), and then see 404', async () => {
+    const property = await propertyWithRoles(fx);
+    for (const actor of ['manager', 'member', 'viewer'] as const) {
+      const { user, client } = fx.people[actor];
+      const res = await client.delete(`/api/properties/${property.id}/members/${user.id}`);
+      expect(res.status, actor).toBe(204);
+      expect(await roleOf(fx, property.id, user.id)).toBeNull();
+      expect((await client.get(`/api/properties/${property.id}`)).status).toBe(404);
+    }
+  });
+
+  it('a role change to a role that does not exist is refused and names the field', async () => {
+    const res = await fx.clients.owner.patch(`/api/properties/${fx.propertyA.id}/members/${fx.people.viewer.user.id}`, { role: 'admin' });
+    expect(res.status).toBe(400);
+    expect(res.body.fields.role).toMatch(/Role/);
+    expect(await roleOf(fx, fx.propertyA.id, fx.people.viewer.user.id)).toBe('viewer');
+  });
+});
+
+describe('invitations', () => {
+  it('are stored as a SHA-256 of the token only (FIPS 180-4 via node:crypto); no column holds the token', async () => {
+    const { token, id } = await invite(fx.people.owner.client, fx.propertyA.id, uniqueEmail('hashed'), 'member');
+    const row = await fx.db.selectFrom('invitations').selectAll().where('id', '=', id).executeTakeFirstOrThrow();
+    expect(row.token_hash).toBe(createHash('sha256').update(token).digest('hex'));
+    expect(JSON.stringify(row)).not.toContain(token);
+    const found = await fx.db.selectFrom('invitations').select('id').where('token_hash', '=', token).execute();
+    expect(found).toEqual([]);
+  });
+
+  it('accepting with an account of another e-mail is 403 and leaves the invitation open', async () => {
+    const invitee = uniqueEmail('intended');
+    const { token } = await invite(fx.people.owner.client, fx.propertyA.id, invitee, 'manager');
+    const res = await fx.clients.outsider.post(`/api/invitations/${token}/accept`);
+    expect(res.status).toBe(403);
+    expect(res.body.error).toContain(invitee);
+    expect(await roleOf(fx, fx.propertyA.id, fx.people.outsider.user.id)).toBeNull();
+    expect((await new Client().get(`/api/invitations/${token}`)).body.invitation.state).toBe('open');
+  });
+
+  it('matches the invited address whatever its letter case', async () => {
+    const invited = await signedInUser('case');
+    const { token } = await invite(fx.people.owner.client, fx.propertyA.id, invited.user.email.toUpperCase(), 'viewer');
+    const res = await invited.client.post(`/api/invitations/${token}/accept`);
+    expect(res.status, res.text).toBe(200);
+  });
+
+  it('accepting twice is 410 the second time', async () => {
+    const property = await createProperty(fx.people.ownerB.client);
+    const { token } = await invite(fx.people.ownerB.client, property.id, fx.people.viewer.user.email, 'viewer');
+    expect((await fx.clients.viewer.post(`/api/invitations/${token}/accept`)).status).toBe(200);
+    const again = await fx.clients.viewer.post(`/api/invitations/${token}/accept`);
+    expect(again.status).toBe(410);
+    expect(again.body.error).toMatch(/already been used/);
+    expect((await new Client().get(`/api/invitations/${token}`)).body.invitation.state).toBe('accepted');
+  });
+
+  it('two racing acceptances of one invitation: exactly one succeeds', async () => {
+    const property = await createProperty(fx.people.ownerB.client);
+    const { token, id } = await invite(fx.people.ownerB.client, property.id, fx.people.member.user.email, 'member');
+    const answers = await Promise.all([1, 2, 3].map(() => fx.clients.member.post(`/api/invitations/${token}/accept`)));
+    expect(answers.map((a) => a.status).sort()).toEqual([200, 410, 410]);
+    const row = await fx.db.selectFrom('invitations').select('accepted_by').where('id', '=', id).executeTakeFirstOrThrow();
+    expect(row.accepted_by).toBe(fx.people.member.user.id);
+  });
+
+  it('a revoked invitation is 410 and grants nothing', async () => {
+    const property = await createProperty(fx.people.ownerB.client);
+    const { token, id } = await invite(fx.people.ownerB.client, property.id, fx.people.outsider.user.email, 'manager');
+    expect((await fx.people.ownerB.client.delete(`/api/properties/${property.id}/invitations/${id}`)).status).toBe(204);
+    const res = await fx.clients.outsider.post(`/api/invitations/${token}/accept`);
+    expect(res.status).toBe(410);
+    expect(res.body.error).toMatch(/withdrawn/);
+    expect(await roleOf(fx, property.id, fx.people.outsider.user.id)).toBeNull();
+    // Revoking again finds nothing open.
+    expect((await fx.people.ownerB.client.delete(`/api/properties/${property.id}/invitations/${id}`)).status).toBe(404);
+  });
+
+  it('an expired invitation is 410', async () => {
+    const property = await createProperty(fx.people.ownerB.client);
+    const { token, id } = await invite(fx.people.ownerB.client, property.id, fx.people.outsider.user.email, 'viewer');
+    await fx.db.updateTable('invitations').set({ expires_at: new Date(Date.now() - 60_000) }).where('id', '=', id).execute();
+    expect((await new Client().get(`/api/invitations/${token}`)).body.invitation.state).toBe('expired');
+    const res = await fx.clients.outsider.post(`/api/invitations/${token}/accept`);
+    expect(res.status).toBe(410);
+    expect(res.body.error).toMatch(/expired/);
+    expect(await roleOf(fx, property.id, fx.people.outsider.user.id)).toBeNull();
+  });
+
+  it('accepting a lower role keeps the higher role one already has', async () => {
+    const { token } = await invite(fx.people.owner.client, fx.propertyA.id, fx.people.manager.user.email, 'viewer');
+    expect((await fx.clients.manager.post(`/api/invitations/${token}/accept`)).status).toBe(200);
+    expect(await roleOf(fx, fx.propertyA.id, fx.people.manager.user.id)).toBe('manager');
+  });
+});
