@@ -16,6 +16,7 @@ export interface UsersTable {
   name: string;
   password_hash: string;
   created_at: CreatedAt;
+  last_seen_at: ColumnType<Date | null, never, Date | string | null>;
 }
 
 export interface SignInAttemptsTable {
@@ -78,6 +79,135 @@ export interface PlotsTable {
   updated_at: UpdatedAt;
 }
 
+export type PlantingMethodColumn = 'spray-and-seed' | 'prepared-seedbed' | 'frost-seeding';
+export type PlantingStatus = 'active' | 'finished' | 'abandoned';
+export type StepKindColumn =
+  | 'clear-brush' | 'spray' | 'kill-wait' | 'burn' | 'rake-till' | 'seed' | 'cover-seed' | 'fertilize' | 'lime'
+  | 'check-germination' | 'mow' | 'spot-spray-grass' | 'frost-seed' | 'soil-test';
+export type StepStatus = 'planned' | 'done' | 'skipped';
+type Json<T> = ColumnType<T, string, string>;
+
+export interface PlantingsTable {
+  id: Generated<string>;
+  plot_id: string;
+  season: 'spring' | 'fall';
+  year: number;
+  method: PlantingMethodColumn;
+  status: ColumnType<PlantingStatus, PlantingStatus | undefined, PlantingStatus>;
+  target_seed_date: LocalDate;
+  ready_by: LocalDate | null;
+  input: Json<unknown>;
+  warnings: Json<string[]>;
+  created_by: string | null;
+  created_at: CreatedAt;
+  updated_at: UpdatedAt;
+}
+
+export interface StepsTable {
+  id: Generated<string>;
+  planting_id: string;
+  key: string;
+  kind: StepKindColumn;
+  title: string;
+  position: number;
+  local_date: LocalDate;
+  window_start: LocalDate | null;
+  window_end: LocalDate | null;
+  hours: Json<{ start: string; end: string } | null> | null;
+  pinned: ColumnType<boolean, boolean | undefined, boolean>;
+  status: ColumnType<StepStatus, StepStatus | undefined, StepStatus>;
+  done_on: LocalDate | null;
+  done_at: Date | null;
+  done_by: string | null;
+  assignee_id: string | null;
+  after: Json<string[]>;
+  quantities: Json<unknown[]>;
+  cautions: Json<unknown[]>;
+  rules: Json<unknown[]>;
+  warnings: Json<string[]>;
+  reason: string;
+  recurrence: string | null;
+  notes: string | null;
+  updated_at: UpdatedAt;
+}
+
+export interface StepMovesTable {
+  id: Generated<string>;
+  step_id: string;
+  from_date: LocalDate;
+  to_date: LocalDate;
+  reason: string;
+  moved_by: string | null;
+  forecast_fetched_at: Date | string | null;
+  created_at: CreatedAt;
+}
+
+export type NotificationChannel = 'email' | 'push';
+
+export interface ForecastsTable {
+  id: Generated<string>;
+  grid_key: string;
+  latitude: number;
+  longitude: number;
+  provider: string;
+  fetched_at: Date | string;
+  first_hour: Date | string;
+  last_hour: Date | string;
+  hours: Json<unknown[]>;
+}
+
+export interface ForecastStatusTable {
+  grid_key: string;
+  last_attempt_at: Date | string | null;
+  last_success_at: Date | string | null;
+  failing_since: Date | string | null;
+  last_error: string | null;
+  consecutive_failures: ColumnType<number, number | undefined, number>;
+}
+
+export interface NotificationSettingsTable {
+  user_id: string;
+  email_enabled: ColumnType<boolean, boolean | undefined, boolean>;
+  push_enabled: ColumnType<boolean, boolean | undefined, boolean>;
+  reminder_hour: ColumnType<number, number | undefined, number>;
+  quiet_start_hour: number | null;
+  quiet_end_hour: number | null;
+  due_reminders: ColumnType<boolean, boolean | undefined, boolean>;
+  digest: ColumnType<boolean, boolean | undefined, boolean>;
+  updated_at: UpdatedAt;
+}
+
+export interface PushSubscriptionsTable {
+  id: Generated<string>;
+  user_id: string;
+  endpoint: string;
+  p256dh: string;
+  auth: string;
+  label: string | null;
+  created_at: CreatedAt;
+  last_sent_at: Date | string | null;
+}
+
+export interface NotificationsTable {
+  id: Generated<string>;
+  dedupe_key: string;
+  user_id: string | null;
+  email_to: string | null;
+  property_id: string | null;
+  step_id: string | null;
+  kind: string;
+  channel: NotificationChannel;
+  message: Json<unknown>;
+  send_after: Date | string;
+  claimed_at: Date | string | null;
+  claimed_by: string | null;
+  sent_at: Date | string | null;
+  failed_at: Date | string | null;
+  attempts: ColumnType<number, number | undefined, number>;
+  last_error: string | null;
+  created_at: CreatedAt;
+}
+
 export interface Database {
   users: UsersTable;
   sign_in_attempts: SignInAttemptsTable;
@@ -85,6 +215,14 @@ export interface Database {
   memberships: MembershipsTable;
   invitations: InvitationsTable;
   plots: PlotsTable;
+  plantings: PlantingsTable;
+  steps: StepsTable;
+  step_moves: StepMovesTable;
+  forecasts: ForecastsTable;
+  forecast_status: ForecastStatusTable;
+  notification_settings: NotificationSettingsTable;
+  push_subscriptions: PushSubscriptionsTable;
+  notifications: NotificationsTable;
 }
 
 export type User = Selectable<UsersTable>;

@@ -1,10 +1,14 @@
 import type { Migration, MigrationProvider } from 'kysely';
 import * as m0001 from './0001_foundation';
+import * as m0002 from './0002_plantings';
+import * as m0003 from './0003_forecasts_notifications';
 
 // Listed here rather than read from disk, so the same list works under tsx, vitest and Next's bundler.
 // A new migration: add a file `NNNN_name.ts` with `up`/`down`, then one line below.
 export const migrations: Record<string, Migration> = {
   '0001_foundation': m0001,
+  '0002_plantings': m0002,
+  '0003_forecasts_notifications': m0003,
 };
 
 export const migrationProvider: MigrationProvider = {

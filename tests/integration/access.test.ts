@@ -23,6 +23,7 @@ type Person = { user: TestUser; client: Client };
 const READ: Expected = { owner: 200, manager: 200, member: 200, viewer: 200, outsider: 404, signedOut: 401 };
 const managerWrite = (ok: number): Expected => ({ owner: ok, manager: ok, member: 403, viewer: 403, outsider: 404, signedOut: 401 });
 const ownerOnly = (ok: number): Expected => ({ owner: ok, manager: 403, member: 403, viewer: 403, outsider: 404, signedOut: 401 });
+const memberWrite = (ok: number): Expected => ({ owner: ok, manager: ok, member: ok, viewer: 403, outsider: 404, signedOut: 401 });
 const anySignedIn = (ok: number): Expected => ({ owner: ok, manager: ok, member: ok, viewer: ok, outsider: ok, signedOut: 401 });
 const anyone = (ok: number): Expected => ({ owner: ok, manager: ok, member: ok, viewer: ok, outsider: ok, signedOut: ok });
 
@@ -56,6 +57,14 @@ interface Case {
   /** Checks on an allowed request's answer. */
   check?: (response: ApiResponse, fx: Fixture, actor: Actor, target: Target) => void | Promise<void>;
 }
+
+/** A spray-and-seed clover planting, as the planner form sends it. */
+const PREVIEW_BODY = {
+  season: 'fall',
+  method: 'spray-and-seed',
+  blend: [{ speciesId: 'white-clover', share: 1 }],
+  targetSeedDate: '2027-09-10',
+};
 
 /** A property of A's owner with the same four roles (and spare as a member), for requests that change people. */
 async function propertyWithRoles(fx: Fixture) {
@@ -191,6 +200,14 @@ const CASES: Case[] = [
     snapshot: (fx, t) => fx.db.selectFrom('plots').selectAll().where('id', '=', t.context!.plotId).executeTakeFirst(),
     check: async (_res, fx, _actor, t) =>
       expect(await fx.db.selectFrom('plots').select('id').where('id', '=', t.context!.plotId).executeTakeFirst()).toBeUndefined(),
+  },
+  {
+    method: 'POST',
+    route: '/api/plots/[plotId]/plan/preview',
+    expect: memberWrite(200),
+    target: (fx) => ({ path: `/api/plots/${fx.plotA.id}/plan/preview`, body: PREVIEW_BODY }),
+    snapshot: (fx) => fx.db.selectFrom('plantings').select('id').execute(),
+    check: (res) => expect(res.body.plan.steps.map((s: { kind: string }) => s.kind)).toContain('seed'),
   },
   {
     method: 'GET',

@@ -4,8 +4,8 @@ import { migrateToLatest, migratorFor } from '@/db/migrate';
 import { migrations } from '@/db/migrations';
 import { freshDatabase, type FreshDatabase } from '../support/db';
 
-const TABLES = ['users', 'sign_in_attempts', 'properties', 'memberships', 'invitations', 'plots'];
-const ENUM_TYPES = ['property_role', 'land_tenure', 'plot_cover', 'plot_sun'];
+const TABLES = ['users', 'sign_in_attempts', 'properties', 'memberships', 'invitations', 'plots', 'plantings', 'steps', 'step_moves', 'forecasts', 'forecast_status', 'notification_settings', 'push_subscriptions', 'notifications'];
+const ENUM_TYPES = ['property_role', 'land_tenure', 'plot_cover', 'plot_sun', 'planting_method', 'planting_status', 'step_kind', 'step_status', 'notification_channel'];
 
 // Catalog queries follow the PostgreSQL manual: information_schema.tables (ch. 37) and pg_type /
 // pg_enum (ch. 53) list what exists in the current database.
