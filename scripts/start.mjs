@@ -27,7 +27,7 @@ async function main() {
   mkdirSync(dataDir, { recursive: true });
   ensureNodeModules();
 
-  const env = { NEXT_TELEMETRY_DISABLED: '1', NODE_ENV: 'production' };
+  const env = { NEXT_TELEMETRY_DISABLED: '1', NODE_ENV: 'production', SOWCAST_DATA_DIR: dataDir };
   let db = null;
   if (process.env.DATABASE_URL) {
     log('postgres', 'DATABASE_URL is set: using that server, starting none');
@@ -73,14 +73,19 @@ async function main() {
   process.on('SIGINT', () => void stopAll(0));
   process.on('SIGTERM', () => void stopAll(0));
 
-  // Local fakes and the worker start beside the web server; each entry says when it applies.
+  // Local fakes, the demo phones, the web server and the worker; each entry says when it applies.
+  const banners = [];
   for (const service of services({ env: process.env, dataDir, webPort })) {
     if (!service.enabled) {
-      log(service.name, service.skipReason);
+      if (service.skipReason) log(service.name, service.skipReason);
       continue;
     }
-    Object.assign(process.env, service.exports ?? {});
-    const child = startService(service.name, service.command, service.args, { ...process.env, ...service.env });
+    const serviceEnv = { ...process.env, ...service.env };
+    if (service.oneShot) {
+      run(service.command, service.args, { env: serviceEnv });
+      continue;
+    }
+    const child = startService(service.name, service.command, service.args, serviceEnv);
     children.push(child);
     child.on('exit', (code, signal) => {
       if (!stopping) {
@@ -88,7 +93,9 @@ async function main() {
         void stopAll(1);
       }
     });
-    if (service.readyUrl) await waitForHttp(service.readyUrl, 60_000, child);
+    if (service.readyUrl) await waitForHttp(service.readyUrl, 60_000, child, service.insecureReady);
+    Object.assign(process.env, service.exports ?? {});
+    if (service.banner) banners.push(service.banner);
   }
 
   const seconds = ((Date.now() - started) / 1000).toFixed(0);
@@ -96,6 +103,7 @@ async function main() {
   const signIns = demo.users.map((u) => `  ${u.role.padEnd(8)} ${u.email.padEnd(28)} ${u.password}`).join('\n');
   process.stdout.write(
     `\nSowcast is running at ${baseUrl}  (ready in ${seconds} s)\n` +
+      (banners.length ? `\nLocal stand-ins for hosted services:\n${banners.map((b) => `  ${b}`).join('\n')}\n` : '') +
       `\nDemo sign-ins (demo data only, never use these passwords elsewhere):\n${signIns}\n` +
       `\nCtrl-C stops everything.\n`,
   );

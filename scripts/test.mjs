@@ -56,8 +56,10 @@ async function main() {
     env.TEST_ARTIFACTS_DIR = path.join(root, '.test-artifacts');
     mkdirSync(env.TEST_ARTIFACTS_DIR, { recursive: true });
 
-    for (const service of testServices({ env, workDir })) {
-      Object.assign(env, service.exports ?? {});
+    for (const name of ['WEATHER', 'SMTP', 'INBOX', 'PUSH']) env[`TEST_PORT_${name}`] = String(await freePort());
+    env.SOWCAST_DATA_DIR = path.join(workDir, 'data');
+    mkdirSync(env.SOWCAST_DATA_DIR, { recursive: true });
+    for (const service of testServices({ env, workDir, dataDir: env.SOWCAST_DATA_DIR })) {
       if (service.build) {
         log('test', service.build.label);
         run(service.build.command, service.build.args, { env });
@@ -66,7 +68,8 @@ async function main() {
         quiet: !process.env.SOWCAST_TEST_VERBOSE,
       });
       children.push(child);
-      if (service.readyUrl) await waitForHttp(service.readyUrl, 90_000, child);
+      if (service.readyUrl) await waitForHttp(service.readyUrl, 90_000, child, service.insecureReady);
+      Object.assign(env, service.exports ?? {});
     }
     log('test', `services ready after ${((Date.now() - started) / 1000).toFixed(0)} s`);
   }

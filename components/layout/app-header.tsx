@@ -17,6 +17,9 @@ export function AppHeader({ userName }: { userName: string }) {
             <li>
               <NavLink href="/properties">Properties</NavLink>
             </li>
+            <li>
+              <NavLink href="/settings">Settings</NavLink>
+            </li>
           </ul>
         </nav>
         <p className="order-5 ml-auto min-w-0 max-w-48 truncate text-sm text-loam-soft sm:order-3 sm:max-w-64" title={userName}>

@@ -55,4 +55,6 @@ export const queryKeys = {
   members: (propertyId: string) => ['properties', propertyId, 'members'] as const,
   invitations: (propertyId: string) => ['properties', propertyId, 'invitations'] as const,
   invitation: (token: string) => ['invitation', token] as const,
+  weather: (propertyId: string) => ['properties', propertyId, 'weather'] as const,
+  pushDevices: ['settings', 'push'] as const,
 };

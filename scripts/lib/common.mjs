@@ -2,6 +2,7 @@
 // before `npm ci` has installed anything.
 import { spawn, spawnSync } from 'node:child_process';
 import { existsSync, readFileSync, statSync } from 'node:fs';
+import https from 'node:https';
 import net from 'node:net';
 import path from 'node:path';
 import { fileURLToPath } from 'node:url';
@@ -81,13 +82,25 @@ export function portIsFree(port) {
   });
 }
 
-export async function waitForHttp(url, timeoutMs = 60_000, child) {
+/** One GET; for our own self-signed fakes (`insecure`) the certificate is not checked. */
+function probe(url, insecure) {
+  if (!insecure) return fetch(url, { signal: AbortSignal.timeout(2_000) }).then((r) => r.status);
+  return new Promise((resolve, reject) => {
+    const request = https.get(url, { rejectUnauthorized: false, timeout: 2_000 }, (response) => {
+      response.resume();
+      resolve(response.statusCode ?? 0);
+    });
+    request.on('error', reject);
+    request.on('timeout', () => request.destroy(new Error('timeout')));
+  });
+}
+
+export async function waitForHttp(url, timeoutMs = 60_000, child, insecure = false) {
   const deadline = Date.now() + timeoutMs;
   while (Date.now() < deadline) {
     if (child && child.exitCode !== null) throw new Error(`${url}: the process exited with ${child.exitCode}`);
     try {
-      const response = await fetch(url, { signal: AbortSignal.timeout(2_000) });
-      if (response.status < 500) return;
+      if ((await probe(url, insecure)) < 500) return;
     } catch {
       // not up yet
     }

@@ -2,7 +2,7 @@
 // Expected behaviour (DEVELOPERS.md, "Access control"): signed out → 401; not a member → 404 (the property's
 // existence is never revealed); a member whose role is too low → 403. Owner ⊃ manager ⊃ member ⊃ viewer.
 // To add a route: add one entry to CASES.
-import { createHash, randomUUID } from 'node:crypto';
+import { createECDH, createHash, randomBytes, randomUUID } from 'node:crypto';
 import { readdirSync, readFileSync } from 'node:fs';
 import path from 'node:path';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
@@ -37,6 +37,8 @@ interface Fixture {
   /** Property B: another owner, none of A's people. */
   propertyB: { id: string; name: string };
   plotB: { id: string; name: string };
+  /** A planted step on B's plot. */
+  stepB: { id: string };
 }
 
 interface Target {
@@ -47,7 +49,7 @@ interface Target {
 }
 
 interface Case {
-  method: 'GET' | 'POST' | 'PATCH' | 'DELETE';
+  method: 'GET' | 'POST' | 'PUT' | 'PATCH' | 'DELETE';
   route: string;
   expect: Expected;
   /** The request to send; may create fresh rows first when the request changes or removes things. */
@@ -65,6 +67,35 @@ const PREVIEW_BODY = {
   blend: [{ speciesId: 'white-clover', share: 1 }],
   targetSeedDate: '2027-09-10',
 };
+
+/** A browser-like push subscription (W3C Push API toJSON): https endpoint, P-256 point and 16-octet secret. */
+function pushSubscriptionBody() {
+  const ecdh = createECDH('prime256v1');
+  ecdh.generateKeys();
+  return {
+    endpoint: `https://push.example.test/send/${randomUUID()}`,
+    keys: { p256dh: ecdh.getPublicKey().toString('base64url'), auth: randomBytes(16).toString('base64url') },
+  };
+}
+
+/** A fresh prepared-seedbed planting on a plot, stored the way the planner stores it; its spray step. */
+async function sprayStepOf(fx: Fixture, plotId: string) {
+  const { createPlanting, getStepRows } = await import('@/lib/data/plantings');
+  const { buildPlantingInput } = await import('@/lib/planning/input');
+  const { planPlanting } = await import('@/lib/schedule/plan');
+  const { plantingSchema } = await import('@/lib/validations/planting');
+  const form = plantingSchema.parse({
+    ...PREVIEW_BODY,
+    method: 'prepared-seedbed',
+    herbicide: { productName: 'Generic glyphosate 41%', rateKind: 'percent-solution', rate: 2 },
+    sprayer: { tankGal: 4, carrierGalPerAcre: 20 },
+  });
+  const plot = await fx.db.selectFrom('plots').selectAll().where('id', '=', plotId).executeTakeFirstOrThrow();
+  const property = await fx.db.selectFrom('properties').selectAll().where('id', '=', plot.property_id).executeTakeFirstOrThrow();
+  const plan = planPlanting(buildPlantingInput(property, plot, form), null, new Date());
+  const planting = await createPlanting({ plotId, form, plan, createdBy: fx.people.owner.user.id });
+  return (await getStepRows(planting.id)).find((s) => s.kind === 'spray')!;
+}
 
 /** A property of A's owner with the same four roles (and spare as a member), for requests that change people. */
 async function propertyWithRoles(fx: Fixture) {
@@ -210,6 +241,23 @@ const CASES: Case[] = [
     check: (res) => expect(res.body.plan.steps.map((s: { kind: string }) => s.kind)).toContain('seed'),
   },
   {
+    // Marking work done is for members and up; the engine then re-places what follows (step-complete.test.ts).
+    method: 'POST',
+    route: '/api/steps/[stepId]/complete',
+    expect: memberWrite(200),
+    target: async (fx) => {
+      const spray = await sprayStepOf(fx, fx.plotA.id);
+      return { path: `/api/steps/${spray.id}/complete`, body: { status: 'done' }, context: { stepId: spray.id } };
+    },
+    snapshot: (fx, t) => fx.db.selectFrom('steps').selectAll().where('id', '=', t.context!.stepId).executeTakeFirst(),
+    check: async (res, fx, actor, t) => {
+      const row = await fx.db.selectFrom('steps').selectAll().where('id', '=', t.context!.stepId).executeTakeFirstOrThrow();
+      expect(row.status).toBe('done');
+      expect(row.done_by).toBe(fx.people[actor as 'owner'].user.id);
+      expect(res.body.step).toMatchObject({ id: t.context!.stepId, status: 'done', doneOn: row.done_on });
+    },
+  },
+  {
     method: 'GET',
     route: '/api/properties/[propertyId]/members',
     expect: READ,
@@ -330,6 +378,214 @@ const CASES: Case[] = [
       expect(await roleOf(fx, t.context!.propertyId, fx.people[actor as 'owner'].user.id)).toBe('member');
     },
   },
+  {
+    // The forecast is for everyone who may see the property, the landowner (viewer) included.
+    method: 'GET',
+    route: '/api/properties/[propertyId]/weather',
+    expect: READ,
+    target: (fx) => ({ path: `/api/properties/${fx.propertyA.id}/weather` }),
+    check: (res, fx) => {
+      expect(res.body.timeZone).toBe('America/Chicago');
+      expect(Array.isArray(res.body.days)).toBe(true);
+      expect(res.text).not.toContain(fx.propertyB.id);
+    },
+  },
+  {
+    // A person's own settings: any signed-in person, nobody else's.
+    method: 'GET',
+    route: '/api/settings/notifications',
+    expect: anySignedIn(200),
+    target: () => ({ path: '/api/settings/notifications' }),
+    check: (res) => expect(typeof res.body.settings.reminderHour).toBe('number'),
+  },
+  {
+    method: 'PUT',
+    route: '/api/settings/notifications',
+    expect: anySignedIn(200),
+    target: (_fx, actor) => ({
+      path: '/api/settings/notifications',
+      body: { emailEnabled: true, pushEnabled: true, reminderHour: 5 + ACTORS.indexOf(actor), quietStartHour: null, quietEndHour: null, dueReminders: true, digest: false },
+    }),
+    check: async (res, fx, actor, t) => {
+      const row = await fx.db.selectFrom('notification_settings').select('reminder_hour').where('user_id', '=', fx.people[actor as 'owner'].user.id).executeTakeFirst();
+      expect(row?.reminder_hour).toBe((t.body as { reminderHour: number }).reminderHour);
+      expect(res.body.settings.reminderHour).toBe(row?.reminder_hour);
+    },
+  },
+  {
+    method: 'GET',
+    route: '/api/settings/push',
+    expect: anySignedIn(200),
+    target: () => ({ path: '/api/settings/push' }),
+    check: (res) => {
+      expect(res.body.publicKey).toMatch(/^[A-Za-z0-9_-]{87}$/);
+      expect(Array.isArray(res.body.devices)).toBe(true);
+    },
+  },
+  {
+    method: 'POST',
+    route: '/api/settings/push-subscriptions',
+    expect: anySignedIn(201),
+    target: () => ({ path: '/api/settings/push-subscriptions', body: pushSubscriptionBody() }),
+    snapshot: (fx, t) => fx.db.selectFrom('push_subscriptions').select('id').where('endpoint', '=', (t.body as { endpoint: string }).endpoint).execute(),
+    check: async (_res, fx, actor, t) => {
+      const row = await fx.db.selectFrom('push_subscriptions').select('user_id').where('endpoint', '=', (t.body as { endpoint: string }).endpoint).executeTakeFirst();
+      expect(row?.user_id).toBe(fx.people[actor as 'owner'].user.id);
+    },
+  },
+  {
+    // Only one's own device is removed; another person's endpoint gets the same 204 and stays (settings.test.ts).
+    method: 'DELETE',
+    route: '/api/settings/push-subscriptions',
+    expect: anySignedIn(204),
+    target: async (fx, actor) => {
+      const body = pushSubscriptionBody();
+      const owner = actor === 'signedOut' ? fx.people.spare : fx.people[actor];
+      const saved = await owner.client.post('/api/settings/push-subscriptions', body);
+      if (saved.status !== 201) throw new Error(`saving a subscription answered ${saved.status}: ${saved.text}`);
+      return { path: '/api/settings/push-subscriptions', body: { endpoint: body.endpoint } };
+    },
+    snapshot: (fx, t) => fx.db.selectFrom('push_subscriptions').select('id').where('endpoint', '=', (t.body as { endpoint: string }).endpoint).execute(),
+    check: async (_res, fx, _actor, t) => {
+      const rows = await fx.db.selectFrom('push_subscriptions').select('id').where('endpoint', '=', (t.body as { endpoint: string }).endpoint).execute();
+      expect(rows).toEqual([]);
+    },
+  },
+  {
+    method: 'GET',
+    route: '/api/plots/[plotId]/plantings',
+    expect: READ,
+    target: async (fx) => {
+      const spray = await sprayStepOf(fx, fx.plotA.id);
+      return { path: `/api/plots/${fx.plotA.id}/plantings`, context: { plantingId: spray.planting_id } };
+    },
+    check: (res, fx, _actor, t) => {
+      const mine = res.body.plantings.find((p: { id: string }) => p.id === t.context!.plantingId);
+      expect(mine.steps.map((s: { kind: string }) => s.kind)).toContain('spray');
+      expect(res.body.plantings.every((p: { plotId: string }) => p.plotId === fx.plotA.id)).toBe(true);
+    },
+  },
+  {
+    // Saving a planting is for managers and up; members may only preview and compare.
+    method: 'POST',
+    route: '/api/plots/[plotId]/plantings',
+    expect: managerWrite(201),
+    target: (fx) => ({ path: `/api/plots/${fx.plotA.id}/plantings`, body: PREVIEW_BODY }),
+    snapshot: (fx) => fx.db.selectFrom('plantings').select('id').where('plot_id', '=', fx.plotA.id).orderBy('id').execute(),
+    check: async (res, fx, actor) => {
+      expect(res.body.planting).toMatchObject({ plotId: fx.plotA.id, createdBy: fx.people[actor as 'owner'].user.id });
+      expect(res.body.steps.map((s: { kind: string }) => s.kind)).toContain('seed');
+      const rows = await fx.db.selectFrom('steps').select('id').where('planting_id', '=', res.body.planting.id).execute();
+      expect(rows).toHaveLength(res.body.steps.length);
+    },
+  },
+  {
+    method: 'GET',
+    route: '/api/plantings/[plantingId]',
+    expect: READ,
+    target: async (fx) => {
+      const spray = await sprayStepOf(fx, fx.plotA.id);
+      return { path: `/api/plantings/${spray.planting_id}`, context: { plantingId: spray.planting_id } };
+    },
+    check: (res, _fx, _actor, t) => {
+      expect(res.body.planting.id).toBe(t.context!.plantingId);
+      expect(Array.isArray(res.body.warnings)).toBe(true);
+      expect(res.body.steps.map((s: { kind: string }) => s.kind)).toContain('seed');
+    },
+  },
+  {
+    method: 'DELETE',
+    route: '/api/plantings/[plantingId]',
+    expect: managerWrite(204),
+    target: async (fx) => {
+      const spray = await sprayStepOf(fx, fx.plotA.id);
+      return { path: `/api/plantings/${spray.planting_id}`, context: { plantingId: spray.planting_id } };
+    },
+    snapshot: async (fx, t) => ({
+      planting: await fx.db.selectFrom('plantings').select('id').where('id', '=', t.context!.plantingId).executeTakeFirst(),
+      steps: await fx.db.selectFrom('steps').select('id').where('planting_id', '=', t.context!.plantingId).orderBy('id').execute(),
+    }),
+    check: async (_res, fx, _actor, t) => {
+      expect(await fx.db.selectFrom('plantings').select('id').where('id', '=', t.context!.plantingId).executeTakeFirst()).toBeUndefined();
+      expect(await fx.db.selectFrom('steps').select('id').where('planting_id', '=', t.context!.plantingId).execute()).toEqual([]);
+    },
+  },
+  {
+    // Everyone signed in gets a calendar; it holds only the plots of their own properties (calendar.test.ts).
+    method: 'GET',
+    route: '/api/calendar',
+    expect: anySignedIn(200),
+    target: async (fx) => {
+      await sprayStepOf(fx, fx.plotA.id);
+      return { path: '/api/calendar?from=2027-06-01&to=2027-12-31' };
+    },
+    check: (res, fx, actor) => {
+      const plots = new Set(res.body.events.map((e: { plotId: string }) => e.plotId));
+      expect(plots.has(fx.plotB.id)).toBe(false);
+      expect(plots.has(fx.plotA.id)).toBe(actor !== 'outsider');
+    },
+  },
+  {
+    method: 'GET',
+    route: '/api/steps/[stepId]',
+    expect: READ,
+    target: async (fx) => {
+      const spray = await sprayStepOf(fx, fx.plotA.id);
+      return { path: `/api/steps/${spray.id}`, context: { stepId: spray.id } };
+    },
+    check: (res, fx, _actor, t) => {
+      expect(res.body.step.id).toBe(t.context!.stepId);
+      expect(res.body.plot).toEqual({ id: fx.plotA.id, name: fx.plotA.name });
+      expect(res.body.property).toEqual({ id: fx.propertyA.id, name: fx.propertyA.name, timeZone: 'America/Chicago' });
+      expect(res.body.moves).toEqual([]);
+    },
+  },
+  {
+    method: 'PATCH',
+    route: '/api/steps/[stepId]',
+    expect: managerWrite(200),
+    target: async (fx) => {
+      const spray = await sprayStepOf(fx, fx.plotA.id);
+      return { path: `/api/steps/${spray.id}`, body: { pinned: true, assigneeId: fx.people.member.user.id }, context: { stepId: spray.id } };
+    },
+    snapshot: (fx, t) => fx.db.selectFrom('steps').selectAll().where('id', '=', t.context!.stepId).executeTakeFirst(),
+    check: async (res, fx, _actor, t) => {
+      const row = await fx.db.selectFrom('steps').selectAll().where('id', '=', t.context!.stepId).executeTakeFirstOrThrow();
+      expect([row.pinned, row.assignee_id]).toEqual([true, fx.people.member.user.id]);
+      expect(res.body.step).toMatchObject({ id: t.context!.stepId, pinned: true, assigneeId: fx.people.member.user.id });
+    },
+  },
+  {
+    // Managers move any step; a member only the steps given to them (this one is nobody's), a viewer none
+    // (step-move.test.ts has the member's own step and the rules' refusals).
+    method: 'POST',
+    route: '/api/steps/[stepId]/move',
+    expect: managerWrite(200),
+    target: async (fx) => {
+      const spray = await sprayStepOf(fx, fx.plotA.id);
+      const next = new Date(Date.parse(`${spray.local_date}T00:00:00Z`) + 86_400_000).toISOString().slice(0, 10);
+      return { path: `/api/steps/${spray.id}/move`, body: { date: next, confirm: true }, context: { stepId: spray.id, date: next } };
+    },
+    snapshot: async (fx, t) => ({
+      step: await fx.db.selectFrom('steps').selectAll().where('id', '=', t.context!.stepId).executeTakeFirst(),
+      moves: await fx.db.selectFrom('step_moves').select('id').where('step_id', '=', t.context!.stepId).execute(),
+    }),
+    check: async (res, fx, actor, t) => {
+      const row = await fx.db.selectFrom('steps').selectAll().where('id', '=', t.context!.stepId).executeTakeFirstOrThrow();
+      expect([row.local_date, row.pinned]).toEqual([t.context!.date, true]);
+      const moves = await fx.db.selectFrom('step_moves').selectAll().where('step_id', '=', t.context!.stepId).execute();
+      expect(moves.map((m) => [m.to_date, m.moved_by])).toEqual([[t.context!.date, fx.people[actor as 'owner'].user.id]]);
+      expect(res.body.step).toMatchObject({ id: t.context!.stepId, date: t.context!.date, pinned: true });
+    },
+  },
+  {
+    method: 'POST',
+    route: '/api/plots/[plotId]/plan/compare',
+    expect: memberWrite(200),
+    target: (fx) => ({ path: `/api/plots/${fx.plotA.id}/plan/compare`, body: { planting: PREVIEW_BODY, seedDates: ['2027-09-01', '2027-09-10'] } }),
+    snapshot: (fx) => fx.db.selectFrom('plantings').select('id').where('plot_id', '=', fx.plotA.id).orderBy('id').execute(),
+    check: (res) => expect(res.body.options.map((o: { seedDate: string }) => o.seedDate)).toEqual(['2027-09-01', '2027-09-10']),
+  },
 ];
 
 let fx: Fixture;
@@ -365,7 +621,9 @@ beforeAll(async () => {
     plotA,
     propertyB,
     plotB,
+    stepB: { id: '' },
   };
+  fx.stepB = { id: (await sprayStepOf(fx, plotB.id)).id };
 });
 
 afterAll(async () => {
@@ -440,11 +698,13 @@ describe('a member of property A using the ids of property B', () => {
     { method: 'POST', path: (f: Fixture) => `/api/properties/${f.propertyB.id}/plots`, body: plotBody() },
     { method: 'GET', path: (f: Fixture) => `/api/properties/${f.propertyB.id}/members` },
     { method: 'GET', path: (f: Fixture) => `/api/properties/${f.propertyB.id}/invitations` },
+    { method: 'POST', path: (f: Fixture) => `/api/steps/${f.stepB.id}/complete`, body: { status: 'done' } },
+    { method: 'GET', path: (f: Fixture) => `/api/properties/${f.propertyB.id}/weather` },
   ] as const;
 
   for (const actor of MEMBERS) {
     for (const r of REQUESTS) {
-      it(`${actor} of A: ${r.method} ${r.path({ plotB: { id: '[plot of B]' }, propertyB: { id: '[B]' } } as Fixture)} → 404`, async () => {
+      it(`${actor} of A: ${r.method} ${r.path({ plotB: { id: '[plot of B]' }, propertyB: { id: '[B]' }, stepB: { id: '[step of B]' } } as Fixture)} → 404`, async () => {
         const plotBefore = await fx.db.selectFrom('plots').selectAll().where('property_id', '=', fx.propertyB.id).execute();
         const propertyBefore = await fx.db.selectFrom('properties').selectAll().where('id', '=', fx.propertyB.id).executeTakeFirst();
         const res = await fx.clients[actor].request(r.method, r.path(fx), 'body' in r ? { json: r.body } : {});
@@ -477,7 +737,7 @@ describe('a member of property A using the ids of property B', () => {
   it('a non-member gets exactly the answer a property that does not exist gets', async () => {
     const outsider = fx.clients.outsider;
     const missing = randomUUID();
-    for (const suffix of ['', '/plots', '/members', '/invitations']) {
+    for (const suffix of ['', '/plots', '/members', '/invitations', '/weather']) {
       const real = await outsider.get(`/api/properties/${fx.propertyA.id}${suffix}`);
       const none = await outsider.get(`/api/properties/${missing}${suffix}`);
       expect([real.status, real.text]).toEqual([none.status, none.text]);
@@ -509,6 +769,8 @@ describe('malformed ids in the path answer 404, never 500', () => {
     { method: 'DELETE', path: (id) => `/api/properties/${id}/invitations/${randomUUID()}` },
     { method: 'GET', path: (id) => `/api/invitations/${id}` },
     { method: 'POST', path: (id) => `/api/invitations/${id}/accept` },
+    { method: 'POST', path: (id) => `/api/steps/${id}/complete`, body: { status: 'done' } },
+    { method: 'GET', path: (id) => `/api/properties/${id}/weather` },
   ];
   for (const r of REQUESTS) {
     it(`${r.method} ${r.path('{bad}', { propertyA: { id: '[A]' } } as Fixture)}`, async () => {
@@ -572,6 +834,22 @@ describe('owners and people', () => {
 });
 
 describe('invitations', () => {
+  it('queue one e-mail to the invitee, with the acceptance link, for the worker to send', async () => {
+    const email = uniqueEmail('mailed');
+    const { id, link } = await invite(fx.people.owner.client, fx.propertyA.id, email, 'member');
+    const rows = await fx.db.selectFrom('notifications').selectAll().where('dedupe_key', '=', `invitation:${id}`).execute();
+    expect(rows).toHaveLength(1);
+    const [row] = rows;
+    expect(row).toMatchObject({ channel: 'email', email_to: email, user_id: null, kind: 'invitation', property_id: fx.propertyA.id, sent_at: null });
+    expect(new Date(row.send_after as Date).getTime()).toBeLessThanOrEqual(Date.now() + 1000);
+    const message = row.message as { subject: string; text: string; html: string };
+    expect(message.subject).toContain(fx.propertyA.name);
+    expect(message.text).toContain(link);
+    expect(message.html).toContain(link);
+    // The inviter still sees the link, to pass it on by hand if the e-mail does not arrive.
+    expect(link).toMatch(/\/invitations\/[A-Za-z0-9_-]{20,}$/);
+  });
+
   it('are stored as a SHA-256 of the token only (FIPS 180-4 via node:crypto); no column holds the token', async () => {
     const { token, id } = await invite(fx.people.owner.client, fx.propertyA.id, uniqueEmail('hashed'), 'member');
     const row = await fx.db.selectFrom('invitations').selectAll().where('id', '=', id).executeTakeFirstOrThrow();

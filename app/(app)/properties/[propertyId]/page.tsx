@@ -10,6 +10,7 @@ import { RoleBadge } from '@/components/properties/role-badge';
 import { ButtonLink } from '@/components/ui/button';
 import { Card, CardHeader } from '@/components/ui/card';
 import { PageHeader } from '@/components/ui/page-header';
+import { WeatherPanel } from '@/components/weather/weather-panel';
 import { roleAtLeast } from '@/lib/validations/membership';
 import { propertyAccess } from '../../_lib/access';
 import { loadProperty } from '../../_lib/property';
@@ -58,6 +59,8 @@ export default async function PropertyPage({ params }: { params: Params }) {
         <CardHeader id="facts-heading" title="About the ground" />
         <PropertyFacts property={property} />
       </Card>
+
+      <WeatherPanel propertyId={propertyId} />
 
       <PlotsSection propertyId={propertyId} canEdit={canEdit} />
 

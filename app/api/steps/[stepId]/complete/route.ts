@@ -1,0 +1,41 @@
+import { requireRoleFor } from '@/lib/auth/roles';
+import { requireUser } from '@/lib/auth/session';
+import { now } from '@/lib/clock';
+import { getStepWithPlace } from '@/lib/data/plantings';
+import { HttpError, json, notFound, parseBody, route } from '@/lib/http';
+import { completeStep, StepDateError } from '@/lib/planning/complete-step';
+import { uuid } from '@/lib/validations/common';
+import { stepOutcomeSchema } from '@/lib/validations/step';
+
+type Context = { params: Promise<{ stepId: string }> };
+
+/**
+ * Marks a step done (with the real date, default today in the property's zone) or skipped; the engine then
+ * re-places the steps that follow from that date. Members and up; others learn nothing about the step.
+ */
+export const POST = route(async (request, { params }: Context) => {
+  const { stepId } = await params;
+  const user = await requireUser();
+  if (!uuid.safeParse(stepId).success) throw notFound();
+  const step = await getStepWithPlace(stepId);
+  if (!step) throw notFound();
+  await requireRoleFor(user, step.property_id, 'member');
+  const body = await parseBody(request, stepOutcomeSchema);
+  try {
+    const result = await completeStep({
+      stepId,
+      plantingId: step.planting_id,
+      status: body.status,
+      date: body.date,
+      notes: body.notes,
+      userId: user.id,
+      now: now(),
+    });
+    return json({ step: result.steps.find((s) => s.id === stepId), steps: result.steps, moved: result.changes });
+  } catch (error) {
+    if (error instanceof StepDateError) throw new HttpError(400, error.message, { date: error.message });
+    // The engine refuses a stored plan or input it cannot work with (a RangeError with a readable message).
+    if (error instanceof RangeError) throw new HttpError(400, error.message);
+    throw error;
+  }
+});

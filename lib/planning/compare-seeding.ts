@@ -1,0 +1,170 @@
+// What-if for the planner: the same planting seeded on two or three dates, side by side. Every number comes
+// from the engine's own rules — the seeding is pinned to each date and the plan re-placed around it — so
+// the comparison says what the plan would say.
+import type { Plot, Property } from '@/db/database';
+import { et0Hargreaves } from '@/lib/agronomy/et0';
+import { blendProfile } from '@/lib/agronomy/species';
+import { seedZoneMoisture } from '@/lib/agronomy/water-balance';
+import { indexForecast, inHorizon } from '@/lib/schedule/forecast-days';
+import { addDays, dayOfYear, daysBetween, monthDayInYear } from '@/lib/schedule/local-dates';
+import { resolveParameters } from '@/lib/schedule/parameters';
+import { planPlanting, replan } from '@/lib/schedule/plan';
+import { frostBounds } from '@/lib/schedule/rules/frost-deadline';
+import { germinationCheck } from '@/lib/schedule/rules/germination-check';
+import type { Forecast, RuleDecision } from '@/lib/schedule/types';
+import type { PlantingFormInput } from '@/lib/validations/planting';
+import { buildPlantingInput } from './input';
+
+export interface SeedingOption {
+  seedDate: string;
+  /** True when every rule passes for seeding that day. */
+  ok: boolean;
+  /** The engine's verdicts for seeding that day (sequence, soil temperature, rain, frost deadline…). */
+  decisions: RuleDecision[];
+  germination: {
+    /** The day the seed zone is expected to be wet enough to start the seed: the first soaking rain, or the seeding day. */
+    moistDate: string;
+    /** Expected emergence: soil degree days above the blend's minimum reach the blend's sum (germination-check rule). */
+    emergenceDate: string;
+    /** Days from seeding to expected emergence. */
+    daysToEmergence: number;
+    /** The germination-check step's date in the plan re-placed around this seeding. */
+    checkDate: string | null;
+    requiredDegreeDays: number;
+    reason: string;
+    warnings: string[];
+  };
+  /**
+   * Seed-zone moisture (FAO-56 surface-layer balance, lib/agronomy/water-balance.ts) from the seeding day to
+   * the end of the forecast or to emergence, whichever is first; null when the forecast does not reach the day.
+   * The layer starts dry, so only forecast rain makes it moist.
+   */
+  moisture: { fromDate: string; throughDate: string; days: number; moistDays: number; firstDryDate: string | null } | null;
+  /**
+   * Frost margin in days. Fall: days from seeding to the latest safe date (the average first fall frost less the
+   * blend's needed weeks) — negative when past it. Spring, frost-tender blend: days after the earliest safe date
+   * (the average last frost plus the margin). null when it does not apply or no frost date is recorded.
+   */
+  frost: { marginDays: number | null; limitDate: string | null; frostDate: string | null; weeksNeeded: number; note: string };
+  planWarnings: string[];
+}
+
+export function compareSeedingDates(o: {
+  property: Property;
+  plot: Pick<Plot, 'acres' | 'cover'>;
+  form: PlantingFormInput;
+  seedDates: string[];
+  forecast: Forecast | null;
+  now: Date;
+}): SeedingOption[] {
+  return o.seedDates.map((seedDate) => {
+    const input = buildPlantingInput(o.property, o.plot, { ...o.form, targetSeedDate: seedDate });
+    const seedKey = input.method === 'frost-seeding' ? 'frost-seed' : 'seed';
+    const first = planPlanting(input, o.forecast, o.now);
+    const pinned = { ...first, steps: first.steps.map((s) => (s.key === seedKey ? { ...s, date: seedDate, pinned: true } : s)) };
+    const forecast: Forecast = o.forecast ?? { timeZone: input.timeZone, fetchedAt: o.now.toISOString(), hours: [] };
+    const { plan } = replan(input, pinned, forecast, o.now);
+    const seed = plan.steps.find((s) => s.key === seedKey);
+    const decisions = seed?.rules ?? [];
+
+    const params = resolveParameters(input.parameters, input.killWaitDays);
+    const profile = blendProfile(input.blend);
+    const soak = params.seedBeforeRain;
+    const fc = o.forecast
+      ? indexForecast(o.forecast, input.timeZone, {
+          measurableRainMm: soak.measurableRainMm,
+          eventGapHours: soak.eventGapHours,
+          soakingRainMm: soak.soakingRainMm,
+          soakingWindowHours: soak.soakingWindowHours,
+        })
+      : null;
+    const year = Number(seedDate.slice(0, 4));
+    const lastFrostThisYear = input.avgLastSpringFrost ? monthDayInYear(input.avgLastSpringFrost, year) : null;
+    const lastSpringFrost =
+      lastFrostThisYear && input.avgLastSpringFrost ? (lastFrostThisYear >= seedDate ? lastFrostThisYear : monthDayInYear(input.avgLastSpringFrost, year + 1)) : null;
+    const texture = input.soilTexture ?? 'loam';
+    const g = germinationCheck({
+      seedDate,
+      fc,
+      profile,
+      params: params.germinationCheck,
+      soak,
+      frostSeeding: input.method === 'frost-seeding',
+      lastSpringFrost,
+      texture,
+      latitudeDeg: input.latitudeDeg,
+    });
+    const emergenceDate = addDays(g.date, -params.germinationCheck.checkDelayDays);
+
+    let moisture: SeedingOption['moisture'] = null;
+    if (fc && fc.lastDate && inHorizon(fc, seedDate)) {
+      const through = emergenceDate < fc.lastDate ? emergenceDate : fc.lastDate;
+      const waterDays = [];
+      for (let d = seedDate; d <= through; d = addDays(d, 1)) {
+        const day = fc.byDate.get(d);
+        if (!day) break;
+        waterDays.push({
+          date: d,
+          rainMm: fc.rainByDate.get(d) ?? 0,
+          et0Mm: et0Hargreaves({ tMaxC: day.airMaxC, tMinC: day.airMinC, latitudeDeg: input.latitudeDeg, dayOfYear: dayOfYear(d) }),
+        });
+      }
+      if (waterDays.length) {
+        const water = seedZoneMoisture(waterDays, { texture });
+        moisture = { fromDate: seedDate, throughDate: waterDays.at(-1)!.date, days: waterDays.length, moistDays: water.moistDays, firstDryDate: water.firstDryDate };
+      }
+    }
+
+    const bounds = frostBounds(input, profile, params.frostDeadline);
+    let frost: SeedingOption['frost'];
+    if (bounds.fallLatest) {
+      frost = {
+        marginDays: daysBetween(seedDate, bounds.fallLatest),
+        limitDate: bounds.fallLatest,
+        frostDate: bounds.firstFallFrost,
+        weeksNeeded: bounds.weeksNeeded,
+        note: `days to spare before ${bounds.fallLatest}, the latest date: ${bounds.weeksNeeded} weeks before the average first fall frost`,
+      };
+    } else if (bounds.springEarliest) {
+      frost = {
+        marginDays: daysBetween(bounds.springEarliest, seedDate),
+        limitDate: bounds.springEarliest,
+        frostDate: bounds.lastSpringFrost,
+        weeksNeeded: bounds.weeksNeeded,
+        note: `days after ${bounds.springEarliest}, the earliest safe date for frost-tender seed`,
+      };
+    } else {
+      frost = {
+        marginDays: null,
+        limitDate: null,
+        frostDate: bounds.season === 'fall' ? bounds.firstFallFrost : bounds.lastSpringFrost,
+        weeksNeeded: bounds.weeksNeeded,
+        note: !bounds.applies
+          ? 'frost seeding goes on in late winter; no frost deadline'
+          : bounds.season === 'fall'
+            ? 'no average first fall frost recorded for the property'
+            : bounds.frostTender
+              ? 'no average last spring frost recorded for the property'
+              : 'no frost-tender species in the blend',
+      };
+    }
+
+    return {
+      seedDate,
+      ok: decisions.every((d) => d.ok),
+      decisions,
+      germination: {
+        moistDate: g.moistDate,
+        emergenceDate,
+        daysToEmergence: daysBetween(seedDate, emergenceDate),
+        checkDate: plan.steps.find((s) => s.key === 'check-germination')?.date ?? null,
+        requiredDegreeDays: g.requiredDegreeDays,
+        reason: g.decision.reason,
+        warnings: g.warnings,
+      },
+      moisture,
+      frost,
+      planWarnings: plan.warnings,
+    };
+  });
+}
