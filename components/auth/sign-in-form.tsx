@@ -7,6 +7,7 @@ import { useId, useState, type FormEvent } from 'react';
 import { Button } from '@/components/ui/button';
 import { Field, Input, controlAria } from '@/components/ui/field';
 import { Notice } from '@/components/ui/notice';
+import { useHydrated } from '@/lib/client/use-hydrated';
 import { signUpPath } from '@/lib/client/navigation';
 import { signInSchema } from '@/lib/validations/user';
 
@@ -20,6 +21,7 @@ export function SignInForm({ callbackUrl, initialError }: { callbackUrl: string;
   const [errors, setErrors] = useState<Errors>({});
   const [message, setMessage] = useState<string | undefined>(initialError);
   const [pending, setPending] = useState(false);
+  const hydrated = useHydrated();
 
   async function onSubmit(event: FormEvent<HTMLFormElement>) {
     event.preventDefault();
@@ -55,7 +57,7 @@ export function SignInForm({ callbackUrl, initialError }: { callbackUrl: string;
   const emailId = `${id}-email`;
   const passwordId = `${id}-password`;
   return (
-    <form onSubmit={onSubmit} noValidate className="space-y-5">
+    <form onSubmit={onSubmit} method="post" noValidate className="space-y-5">
       {message ? <Notice tone="error">{message}</Notice> : null}
       <Field label="E-mail" htmlFor={emailId} error={errors.email}>
         <Input
@@ -82,12 +84,12 @@ export function SignInForm({ callbackUrl, initialError }: { callbackUrl: string;
           required
         />
       </Field>
-      <Button type="submit" pending={pending} className="w-full">
+      <Button type="submit" pending={pending} disabled={!hydrated} className="w-full">
         Sign in
       </Button>
       <p className="text-center text-sm text-loam-soft">
         New to Sowcast?{' '}
-        <Link href={signUpPath(callbackUrl === '/properties' ? undefined : callbackUrl)} className="font-semibold text-rain underline-offset-2 hover:underline">
+        <Link href={signUpPath(callbackUrl === '/dashboard' ? undefined : callbackUrl)} className="font-semibold text-rain underline-offset-2 hover:underline">
           Create an account
         </Link>
       </p>

@@ -9,6 +9,7 @@ import { useForm, type Resolver } from 'react-hook-form';
 import { Button } from '@/components/ui/button';
 import { Field, Input, controlAria } from '@/components/ui/field';
 import { Notice } from '@/components/ui/notice';
+import { useHydrated } from '@/lib/client/use-hydrated';
 import { ApiError, apiFetch, errorMessage } from '@/lib/client/api';
 import { signInPath } from '@/lib/client/navigation';
 import { signUpSchema } from '@/lib/validations/user';
@@ -17,6 +18,7 @@ type Values = { name: string; email: string; password: string };
 const FIELDS = ['name', 'email', 'password'] as const;
 
 export function SignUpForm({ callbackUrl, email = '' }: { callbackUrl: string; email?: string }) {
+  const hydrated = useHydrated();
   const router = useRouter();
   const id = useId();
   const [message, setMessage] = useState<{ text: string; signIn?: boolean } | null>(null);
@@ -60,7 +62,7 @@ export function SignUpForm({ callbackUrl, email = '' }: { callbackUrl: string; e
 
   const ids = { name: `${id}-name`, email: `${id}-email`, password: `${id}-password` };
   return (
-    <form onSubmit={onSubmit} noValidate className="space-y-5">
+    <form onSubmit={onSubmit} method="post" noValidate className="space-y-5">
       {message ? (
         <Notice tone="error">
           {message.text}
@@ -91,12 +93,12 @@ export function SignUpForm({ callbackUrl, email = '' }: { callbackUrl: string; e
       <Field label="Password" htmlFor={ids.password} error={errors.password?.message} hint="At least 10 characters. A few unrelated words make a strong one.">
         <Input {...controlAria(ids.password, errors.password?.message, true)} type="password" autoComplete="new-password" {...register('password')} />
       </Field>
-      <Button type="submit" pending={isSubmitting} className="w-full">
+      <Button type="submit" pending={isSubmitting} disabled={!hydrated} className="w-full">
         Create account
       </Button>
       <p className="text-center text-sm text-loam-soft">
         Already have an account?{' '}
-        <Link href={signInPath(callbackUrl === '/properties' ? undefined : callbackUrl)} className="font-semibold text-rain underline-offset-2 hover:underline">
+        <Link href={signInPath(callbackUrl === '/dashboard' ? undefined : callbackUrl)} className="font-semibold text-rain underline-offset-2 hover:underline">
           Sign in
         </Link>
       </p>

@@ -153,6 +153,8 @@ export function NotificationSettingsForm({ initial, email, zones }: { initial: N
             <Select
               {...controlAria(ids.reminderHour, errors.reminderHour?.message, true)}
               className="sm:max-w-xs"
+              // Also in the server's HTML, so the saved hour shows before the page hydrates.
+              defaultValue={initial.reminderHour}
               {...register('reminderHour', { setValueAs: numberOrNull, onChange: () => setSaved(false) })}
             >
               {HOURS.map((hour) => (
@@ -189,6 +191,7 @@ export function NotificationSettingsForm({ initial, email, zones }: { initial: N
                 <Field label="Quiet from" htmlFor={ids.quietStart} error={errors.quietStartHour?.message}>
                   <Select
                     {...controlAria(ids.quietStart, errors.quietStartHour?.message)}
+                    defaultValue={initial.quietStartHour ?? undefined}
                     {...register('quietStartHour', { setValueAs: numberOrNull, onChange: () => setSaved(false) })}
                   >
                     {HOURS.map((hour) => (
@@ -201,6 +204,7 @@ export function NotificationSettingsForm({ initial, email, zones }: { initial: N
                 <Field label="Quiet until" htmlFor={ids.quietEnd} error={errors.quietEndHour?.message}>
                   <Select
                     {...controlAria(ids.quietEnd, errors.quietEndHour?.message)}
+                    defaultValue={initial.quietEndHour ?? undefined}
                     {...register('quietEndHour', { setValueAs: numberOrNull, onChange: () => setSaved(false) })}
                   >
                     {HOURS.map((hour) => (

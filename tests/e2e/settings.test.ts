@@ -113,7 +113,9 @@ describe('settings in the browser', () => {
 
     await page.reload();
     await page.getByRole('heading', { name: 'Settings', level: 1 }).waitFor();
-    expect(await page.getByLabel('Reminder hour', { exact: true }).inputValue()).toBe('6');
+    // The server's HTML carries no selected option for react-hook-form's uncontrolled selects: the saved
+    // values appear once the page has hydrated, so wait for them rather than read the first paint.
+    await expect.poll(() => page.getByLabel('Reminder hour', { exact: true }).inputValue(), { timeout: 10_000 }).toBe('6');
     expect(await page.getByRole('checkbox', { name: /Quiet hours/ }).isChecked()).toBe(true);
     expect(await page.getByLabel('Quiet from').inputValue()).toBe('22');
     expect(await page.getByLabel('Quiet until').inputValue()).toBe('5');
