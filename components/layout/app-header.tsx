@@ -7,13 +7,19 @@ export function AppHeader({ userName }: { userName: string }) {
   return (
     <header className="border-b border-ground-line bg-ground-raised/90">
       <div className="mx-auto flex max-w-5xl flex-wrap items-center gap-x-4 gap-y-1 px-4 py-2 sm:gap-x-6 sm:px-6">
-        <Wordmark href="/properties" className="order-1" />
+        <Wordmark href="/dashboard" className="order-1" />
         <div className="order-2 ml-auto sm:order-4 sm:ml-0">
           <SignOutButton />
         </div>
         <div className="order-3 basis-full sm:hidden" aria-hidden="true" />
         <nav aria-label="Main" className="order-4 sm:order-2">
           <ul className="flex gap-1">
+            <li>
+              <NavLink href="/dashboard">Today</NavLink>
+            </li>
+            <li>
+              <NavLink href="/calendar">Calendar</NavLink>
+            </li>
             <li>
               <NavLink href="/properties">Properties</NavLink>
             </li>

@@ -2,6 +2,7 @@
 
 import { useMutation, useQuery, useQueryClient } from '@tanstack/react-query';
 import { Pencil, Plus, Trash2 } from 'lucide-react';
+import Link from 'next/link';
 import { useState } from 'react';
 import { Button, ButtonLink } from '@/components/ui/button';
 import { Notice } from '@/components/ui/notice';
@@ -103,7 +104,9 @@ export function PlotsSection({ propertyId, canEdit }: { propertyId: string; canE
               {query.data.plots.map((plot) => (
                 <tr key={plot.id} className="align-top">
                   <th scope="row" className="sticky left-0 max-w-40 bg-ground-raised px-5 py-3 font-semibold text-loam shadow-[1px_0_0_#e4ddcc] sm:max-w-none sm:pl-6 sm:shadow-none">
-                    {plot.name}
+                    <Link href={`/plots/${plot.id}`} className="inline-flex min-h-10 items-center text-rain hover:underline">
+                      {plot.name}
+                    </Link>
                   </th>
                   <td className="tabular px-3 py-3 text-right">{formatNumber(plot.acres)}</td>
                   <td className="min-w-36 px-3 py-3">{PLOT_COVER_LABELS[plot.cover]}</td>

@@ -30,7 +30,8 @@ describe('a new club manager in the browser', () => {
     await page.getByLabel('E-mail').fill(email);
     await page.getByLabel('Password').fill('a-long-enough-password');
     await page.getByRole('button', { name: 'Create account' }).click();
-    await page.waitForURL('**/properties');
+    await page.waitForURL('**/dashboard');
+    await page.goto(`${baseUrl()}/properties`);
 
     await page.getByRole('link', { name: /new property/i }).click();
     await page.waitForURL('**/properties/new');

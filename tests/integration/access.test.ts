@@ -511,6 +511,16 @@ const CASES: Case[] = [
     },
   },
   {
+    method: 'GET',
+    route: '/api/dashboard',
+    expect: anySignedIn(200),
+    target: () => ({ path: '/api/dashboard' }),
+    check: (res, fx, actor) => {
+      // Only steps of properties the person belongs to: an outsider's dashboard never shows property A.
+      if (actor === 'outsider') expect(JSON.stringify(res.body)).not.toContain(fx.propertyA.id);
+    },
+  },
+  {
     // Everyone signed in gets a calendar; it holds only the plots of their own properties (calendar.test.ts).
     method: 'GET',
     route: '/api/calendar',

@@ -16,7 +16,7 @@ const KNOWN_ERRORS = new Set([BAD_CREDENTIALS, TOO_MANY_ATTEMPTS]);
 
 export default async function SignInPage({ searchParams }: { searchParams: SearchParams }) {
   const query = await searchParams;
-  const callbackUrl = safeCallbackUrl(query.callbackUrl);
+  const callbackUrl = safeCallbackUrl(query.callbackUrl, '/dashboard');
   const errorParam = typeof query.error === 'string' ? query.error : undefined;
   const initialError = errorParam ? (KNOWN_ERRORS.has(errorParam) ? errorParam : 'Sign-in did not work. Try again.') : undefined;
   // A database hiccup must not hide the form; signing in will then say what is wrong.

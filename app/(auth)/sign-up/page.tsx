@@ -9,7 +9,7 @@ type SearchParams = Promise<Record<string, string | string[] | undefined>>;
 
 export default async function SignUpPage({ searchParams }: { searchParams: SearchParams }) {
   const query = await searchParams;
-  const callbackUrl = safeCallbackUrl(query.callbackUrl);
+  const callbackUrl = safeCallbackUrl(query.callbackUrl, '/dashboard');
   const email = typeof query.email === 'string' ? query.email.slice(0, 254) : '';
   return (
     <Card>

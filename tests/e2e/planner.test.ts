@@ -1,0 +1,124 @@
+import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import type { Browser, Page } from 'playwright-core';
+import { createDb, createPool } from '@/db';
+import { loadDemo } from '@/db/demo';
+import demoUsers from '@/db/demo-users.json';
+import { baseUrl, DESKTOP, launchBrowser, PHONE, screenshot, signIn } from './browser';
+
+let browser: Browser;
+
+beforeAll(async () => {
+  const db = createDb(createPool(process.env.DATABASE_URL));
+  await loadDemo(db); // idempotent: other files may have loaded it too
+  await db.destroy();
+  browser = await launchBrowser();
+});
+
+afterAll(async () => {
+  await browser?.close();
+});
+
+const user = (role: string) => demoUsers.users.find((u) => u.role === role)!;
+
+async function openCreeksideStrip(page: Page) {
+  await page.goto(`${baseUrl()}/properties`);
+  await page.getByRole('link', { name: /Foxglove Hollow Lease/ }).first().click();
+  await page.waitForURL(/\/properties\/[0-9a-f-]{36}$/);
+  await page.getByRole('link', { name: 'Creekside strip', exact: true }).click();
+  await page.waitForURL(/\/plots\/[0-9a-f-]{36}$/);
+  await page.getByRole('heading', { name: 'Creekside strip', level: 1 }).waitFor();
+}
+
+// A spring seeding comfortably ahead of whatever "today" the run has.
+const now = new Date();
+const seedYear = now.getUTCFullYear() + (now.getUTCMonth() >= 2 ? 1 : 0);
+const seedDate = `${seedYear}-03-20`;
+
+describe('the plot planner', () => {
+  it('lets the demo manager plan a spray-and-seed planting and shows what to carry, the cautions and the steps in order', async () => {
+    const context = await browser.newContext({ viewport: DESKTOP });
+    const page = await context.newPage();
+    const manager = user('manager');
+    await signIn(page, manager.email, manager.password);
+    await openCreeksideStrip(page);
+    expect(await page.getByText('0.5 ac').count()).toBeGreaterThan(0);
+
+    await page.getByLabel('Season', { exact: true }).selectOption('spring');
+    await page.getByLabel('Method', { exact: true }).selectOption('spray-and-seed');
+    await page.getByLabel('Planned seeding date', { exact: true }).fill(seedDate);
+    await page.getByLabel(/^Ready by/).fill('');
+    await page.getByLabel('Species 1', { exact: true }).selectOption('white-clover');
+    await page.getByLabel('Share', { exact: true }).fill('1');
+    await page.getByLabel(/^Seed bag size/).fill('8.5');
+    await page.getByLabel('Product name', { exact: true }).fill('Generic glyphosate 41%');
+    await page.getByLabel(/^Active ingredient/).fill('41');
+    await page.getByLabel('Rate given as', { exact: true }).selectOption('percent-solution');
+    await page.getByLabel(/^Rate \(% solution\)/).fill('2');
+    await page.getByLabel(/^Rainfast period/).fill('2');
+    await page.getByLabel('Sprayer tank (gal)', { exact: true }).fill('4');
+    await page.getByLabel('Spray volume (gal per acre)', { exact: true }).fill('15');
+
+    await page.getByRole('button', { name: 'Preview' }).click();
+    const preview = page.locator('section[aria-labelledby="preview-heading"]');
+    await preview.waitFor();
+    // 0.5 acre × 15 gal/acre = 7.5 gal of spray; a 4-gal tank needs ceil(7.5 / 4) = 2 fills (arithmetic).
+    await expect.poll(() => preview.getByText(/2 sprayer fills/).count()).toBeGreaterThan(0);
+    // Broadcasting into standing, sprayed cover at twice the bag rate: common practice, no source.
+    expect(await preview.getByText(/2× the bag rate/).count()).toBeGreaterThan(0);
+    await screenshot(page, 'planner-preview-desktop');
+
+    await page.getByRole('button', { name: 'Save planting' }).click();
+    await expect.poll(() => page.getByText(/^Saved: a planting of \d+ steps/).count()).toBeGreaterThan(0);
+
+    const planting = page.locator(`section[aria-label="spring ${seedYear} planting"]`).first();
+    await planting.waitFor();
+    expect(await planting.getByText(/2× the bag rate/).count()).toBeGreaterThan(0);
+    expect(await planting.getByText(/2 sprayer fills/).count()).toBeGreaterThan(0);
+    // "The label is the law" is the U.S. EPA's own phrase for pesticide labels (FIFRA); protective equipment
+    // and drift are what every burndown label asks about.
+    const cautions = planting.locator('section[aria-label="Cautions"]');
+    expect(await cautions.count()).toBeGreaterThan(0);
+    const cautionText = (await cautions.first().textContent()) ?? '';
+    expect(cautionText).toMatch(/label is the law/i);
+    expect(cautionText).toMatch(/protective equipment/i);
+    expect(cautionText).toMatch(/drift/i);
+
+    // Spray before seed before the germination check: a burndown must kill the cover the seed goes into,
+    // and there is nothing to check before seeding.
+    const kinds = await planting.locator('li[data-step-kind]').evaluateAll((items) => items.map((li) => li.getAttribute('data-step-kind')));
+    const spray = kinds.indexOf('spray');
+    const seed = kinds.indexOf('seed');
+    const check = kinds.indexOf('check-germination');
+    expect(spray).toBeGreaterThanOrEqual(0);
+    expect(seed).toBeGreaterThan(spray);
+    expect(check).toBeGreaterThan(seed);
+
+    // The manager gets the controls on each saved step.
+    expect(await planting.getByLabel('Assigned to').count()).toBeGreaterThan(0);
+    expect(await planting.getByRole('button', { name: 'Pin the date' }).count()).toBeGreaterThan(0);
+    expect(await planting.getByRole('button', { name: 'Mark done' }).count()).toBeGreaterThan(0);
+
+    await screenshot(page, 'planner-saved-desktop');
+    await page.setViewportSize(PHONE);
+    await screenshot(page, 'planner-saved-phone');
+    await context.close();
+  });
+
+  it('shows the demo viewer the plan without planning, assigning or completing controls', async () => {
+    const context = await browser.newContext({ viewport: PHONE });
+    const page = await context.newPage();
+    const viewer = user('viewer');
+    await signIn(page, viewer.email, viewer.password);
+    await openCreeksideStrip(page);
+    await page.getByRole('heading', { name: 'Plantings and their steps' }).waitFor();
+    expect(await page.locator('li[data-step-kind]').count()).toBeGreaterThan(0);
+    expect(await page.getByRole('heading', { name: 'Plan a planting' }).count()).toBe(0);
+    expect(await page.getByRole('button', { name: 'Save planting' }).count()).toBe(0);
+    expect(await page.getByLabel('Assigned to').count()).toBe(0);
+    expect(await page.getByRole('button', { name: /Pin the date|Unpin the date/ }).count()).toBe(0);
+    expect(await page.getByRole('button', { name: 'Mark done' }).count()).toBe(0);
+    expect(await page.getByRole('button', { name: 'Skip' }).count()).toBe(0);
+    await screenshot(page, 'planner-viewer-phone');
+    await context.close();
+  });
+});
