@@ -6,6 +6,7 @@ import { useState } from 'react';
 import { RoleBadge } from '@/components/properties/role-badge';
 import { Button } from '@/components/ui/button';
 import { Select } from '@/components/ui/field';
+import { LoadError } from '@/components/ui/load-error';
 import { Notice } from '@/components/ui/notice';
 import { LoadingBlock } from '@/components/ui/skeleton';
 import { apiFetch, errorMessage, queryKeys } from '@/lib/client/api';
@@ -76,16 +77,7 @@ export function MembersSection({
 
   if (query.isPending) return <LoadingBlock label="Loading the people on this property" rows={2} />;
   if (query.isError) {
-    return (
-      <div className="space-y-3">
-        <Notice tone="error" title="The members did not load">
-          {errorMessage(query.error)}
-        </Notice>
-        <Button variant="secondary" onClick={() => void query.refetch()}>
-          Try again
-        </Button>
-      </div>
-    );
+    return <LoadError title="The members did not load" error={query.error} onRetry={() => void query.refetch()} />;
   }
 
   const ownerCount = query.data.members.filter((m) => m.role === 'owner').length;

@@ -5,6 +5,7 @@ import { Pencil, Plus, Trash2 } from 'lucide-react';
 import Link from 'next/link';
 import { useState } from 'react';
 import { Button, ButtonLink } from '@/components/ui/button';
+import { LoadError } from '@/components/ui/load-error';
 import { Notice } from '@/components/ui/notice';
 import { LoadingBlock } from '@/components/ui/skeleton';
 import { apiFetch, errorMessage, queryKeys } from '@/lib/client/api';
@@ -66,14 +67,7 @@ export function PlotsSection({ propertyId, canEdit }: { propertyId: string; canE
           <LoadingBlock label="Loading plots" rows={3} />
         </div>
       ) : query.isError ? (
-        <div className="space-y-3 px-5 pb-5 sm:px-6">
-          <Notice tone="error" title="The plots did not load">
-            {errorMessage(query.error)}
-          </Notice>
-          <Button variant="secondary" onClick={() => void query.refetch()}>
-            Try again
-          </Button>
-        </div>
+        <LoadError className="px-5 pb-5 sm:px-6" title="The plots did not load" error={query.error} onRetry={() => void query.refetch()} />
       ) : query.data.plots.length === 0 ? (
         <p className="px-5 pb-6 text-loam-soft sm:px-6">
           {canEdit

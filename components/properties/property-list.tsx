@@ -3,10 +3,10 @@
 import { useQuery } from '@tanstack/react-query';
 import { ChevronRight, Clock, Sprout } from 'lucide-react';
 import Link from 'next/link';
-import { Button, ButtonLink } from '@/components/ui/button';
-import { Notice } from '@/components/ui/notice';
+import { ButtonLink } from '@/components/ui/button';
+import { LoadError } from '@/components/ui/load-error';
 import { LoadingBlock } from '@/components/ui/skeleton';
-import { apiFetch, errorMessage, queryKeys } from '@/lib/client/api';
+import { apiFetch, queryKeys } from '@/lib/client/api';
 import { formatAcres } from '@/lib/client/format';
 import type { PropertySummary } from '@/lib/data/properties';
 import { RoleBadge } from './role-badge';
@@ -19,16 +19,7 @@ export function PropertyList() {
 
   if (query.isPending) return <LoadingBlock label="Loading your properties" rows={3} />;
   if (query.isError) {
-    return (
-      <div className="space-y-3">
-        <Notice tone="error" title="Your properties did not load">
-          {errorMessage(query.error)}
-        </Notice>
-        <Button variant="secondary" onClick={() => void query.refetch()}>
-          Try again
-        </Button>
-      </div>
-    );
+    return <LoadError title="Your properties did not load" error={query.error} onRetry={() => void query.refetch()} />;
   }
 
   const properties = query.data.properties;

@@ -3,12 +3,12 @@
 import { useQuery, type UseQueryResult } from '@tanstack/react-query';
 import { CloudOff, CloudRain, CloudSun, Droplets, Snowflake, Sprout, Thermometer, Wind } from 'lucide-react';
 import type { ReactNode } from 'react';
-import { Button } from '@/components/ui/button';
 import { Card, CardHeader } from '@/components/ui/card';
 import { cn } from '@/components/ui/cn';
+import { LoadError } from '@/components/ui/load-error';
 import { Notice } from '@/components/ui/notice';
 import { LoadingBlock } from '@/components/ui/skeleton';
-import { apiFetch, errorMessage, queryKeys } from '@/lib/client/api';
+import { apiFetch, queryKeys } from '@/lib/client/api';
 import { ago, celsius, dayLabel, fahrenheit, instantInZone, mph, rainInches, rainMillimetres } from './format';
 
 export interface WeatherDay {
@@ -69,16 +69,7 @@ export function WeatherPanel({ propertyId }: { propertyId: string }) {
 function PanelBody({ query }: { query: UseQueryResult<WeatherAnswer> }) {
   if (query.isPending) return <LoadingBlock label="Loading the forecast" rows={4} />;
   if (query.isError) {
-    return (
-      <div className="space-y-3">
-        <Notice tone="error" title="The forecast did not load">
-          {errorMessage(query.error)}
-        </Notice>
-        <Button variant="secondary" onClick={() => void query.refetch()}>
-          Try again
-        </Button>
-      </div>
-    );
+    return <LoadError title="The forecast did not load" error={query.error} onRetry={() => void query.refetch()} />;
   }
   const answer = query.data;
   if (!answer.fetchedAt) {
