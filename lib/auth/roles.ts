@@ -1,3 +1,4 @@
+import { getStepWithPlace } from '@/lib/data/plantings';
 import { getPlot } from '@/lib/data/plots';
 import { getMembershipRole } from '@/lib/data/memberships';
 import { HttpError, notFound } from '@/lib/http';
@@ -43,4 +44,14 @@ export async function requirePlotRole(plotId: string, needed: Role) {
   if (!plot) throw notFound();
   const access = await requireRoleFor(user, plot.property_id, needed);
   return { ...access, plot };
+}
+
+/** Access through a step id: 404 for a step that does not exist or whose property the user cannot see. */
+export async function requireStepRole(stepId: string, needed: Role) {
+  const user = await requireUser();
+  if (!uuid.safeParse(stepId).success) throw notFound();
+  const step = await getStepWithPlace(stepId);
+  if (!step) throw notFound();
+  const access = await requireRoleFor(user, step.property_id, needed);
+  return { ...access, step };
 }

@@ -1,30 +1,20 @@
-import { requireRoleFor } from '@/lib/auth/roles';
-import { requireUser } from '@/lib/auth/session';
+import { requireStepRole } from '@/lib/auth/roles';
 import { now } from '@/lib/clock';
 import { toStepDto } from '@/lib/data/plantings';
 import { getStepDetail, hasRoleAtLeast, listStepMovesWithPeople } from '@/lib/data/steps';
 import { HttpError, json, notFound, parsePatch, route } from '@/lib/http';
 import { mayMoveStep } from '@/lib/planning/calendar-events';
 import { editStep, StepMoveRefused } from '@/lib/planning/move-step';
-import { uuid } from '@/lib/validations/common';
-import type { Role } from '@/lib/validations/membership';
 import { stepPatchSchema } from '@/lib/validations/step-edit';
 
 type Context = { params: Promise<{ stepId: string }> };
 
-async function requireStepRole(stepId: string, needed: Role) {
-  const user = await requireUser();
-  if (!uuid.safeParse(stepId).success) throw notFound();
-  const step = await getStepDetail(stepId);
-  if (!step) throw notFound();
-  const access = await requireRoleFor(user, step.property_id, needed);
-  return { ...access, step };
-}
-
 /** One step with its planting, plot and property, the property's zone, its assignee and its moves. */
 export const GET = route(async (_request, { params }: Context) => {
   const { stepId } = await params;
-  const { step, role, user } = await requireStepRole(stepId, 'viewer');
+  const { role, user } = await requireStepRole(stepId, 'viewer');
+  const step = await getStepDetail(stepId);
+  if (!step) throw notFound();
   const moves = await listStepMovesWithPeople(stepId);
   return json({
     step: toStepDto(step),

@@ -1,10 +1,7 @@
-import { requireRoleFor } from '@/lib/auth/roles';
-import { requireUser } from '@/lib/auth/session';
+import { requireStepRole } from '@/lib/auth/roles';
 import { now } from '@/lib/clock';
-import { getStepWithPlace } from '@/lib/data/plantings';
-import { HttpError, json, notFound, parseBody, route } from '@/lib/http';
+import { HttpError, json, parseBody, route } from '@/lib/http';
 import { completeStep, StepDateError } from '@/lib/planning/complete-step';
-import { uuid } from '@/lib/validations/common';
 import { stepOutcomeSchema } from '@/lib/validations/step';
 
 type Context = { params: Promise<{ stepId: string }> };
@@ -15,11 +12,7 @@ type Context = { params: Promise<{ stepId: string }> };
  */
 export const POST = route(async (request, { params }: Context) => {
   const { stepId } = await params;
-  const user = await requireUser();
-  if (!uuid.safeParse(stepId).success) throw notFound();
-  const step = await getStepWithPlace(stepId);
-  if (!step) throw notFound();
-  await requireRoleFor(user, step.property_id, 'member');
+  const { user, step } = await requireStepRole(stepId, 'member');
   const body = await parseBody(request, stepOutcomeSchema);
   try {
     const result = await completeStep({

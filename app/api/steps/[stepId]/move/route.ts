@@ -1,11 +1,8 @@
-import { requireRoleFor } from '@/lib/auth/roles';
-import { requireUser } from '@/lib/auth/session';
+import { requireStepRole } from '@/lib/auth/roles';
 import { now } from '@/lib/clock';
-import { getStepWithPlace } from '@/lib/data/plantings';
-import { errorResponse, HttpError, json, notFound, parseBody, route } from '@/lib/http';
+import { errorResponse, HttpError, json, parseBody, route } from '@/lib/http';
 import { mayMoveStep } from '@/lib/planning/calendar-events';
 import { moveStep, StepMoveDateError, StepMoveRefused } from '@/lib/planning/move-step';
-import { uuid } from '@/lib/validations/common';
 import { roleAtLeast } from '@/lib/validations/membership';
 import { stepMoveSchema } from '@/lib/validations/step-edit';
 
@@ -18,11 +15,7 @@ type Context = { params: Promise<{ stepId: string }> };
  */
 export const POST = route(async (request, { params }: Context) => {
   const { stepId } = await params;
-  const user = await requireUser();
-  if (!uuid.safeParse(stepId).success) throw notFound();
-  const step = await getStepWithPlace(stepId);
-  if (!step) throw notFound();
-  const { role } = await requireRoleFor(user, step.property_id, 'member');
+  const { user, step, role } = await requireStepRole(stepId, 'member');
   if (!mayMoveStep(role, step.assignee_id, user.id)) {
     throw new HttpError(403, 'Members can move only the steps assigned to them');
   }
