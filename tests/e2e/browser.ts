@@ -1,6 +1,8 @@
 import { mkdirSync } from 'node:fs';
 import path from 'node:path';
 import { chromium, type Browser, type Page } from 'playwright-core';
+import { createDb, createPool } from '@/db';
+import { loadDemo } from '@/db/demo';
 
 export const baseUrl = () => {
   const url = process.env.SOWCAST_BASE_URL;
@@ -35,4 +37,14 @@ export async function signIn(page: Page, email: string, password: string) {
   await page.getByLabel('Password').fill(password);
   await page.getByRole('button', { name: 'Sign in' }).click();
   await page.waitForURL((url) => !url.pathname.startsWith('/sign-in'));
+}
+
+/** Loads the demo club into the test database; idempotent, so every browser file may call it. */
+export async function loadDemoData() {
+  const db = createDb(createPool(process.env.DATABASE_URL));
+  try {
+    await loadDemo(db);
+  } finally {
+    await db.destroy();
+  }
 }

@@ -4,18 +4,14 @@
 // the list of upcoming steps instead of the grid. Screenshots at desktop and phone width are test artifacts.
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import type { Browser, Page } from 'playwright-core';
-import { createDb, createPool } from '@/db';
-import { loadDemo } from '@/db/demo';
 import demoUsers from '@/db/demo-users.json';
-import { baseUrl, DESKTOP, launchBrowser, PHONE, screenshot, signIn } from './browser';
+import { baseUrl, DESKTOP, launchBrowser, PHONE, screenshot, signIn, loadDemoData } from './browser';
 
 let browser: Browser;
 const person = (role: string) => demoUsers.users.find((u) => u.role === role)!;
 
 beforeAll(async () => {
-  const db = createDb(createPool(process.env.DATABASE_URL));
-  await loadDemo(db); // idempotent: other files may have loaded it too
-  await db.destroy();
+  await loadDemoData();
   browser = await launchBrowser();
 });
 
