@@ -208,6 +208,16 @@ export interface NotificationsTable {
   created_at: CreatedAt;
 }
 
+export interface BlendsTable {
+  id: Generated<string>;
+  property_id: string;
+  name: string;
+  parts: Json<{ speciesId: string; share: number }[]>;
+  notes: string | null;
+  created_by: string | null;
+  created_at: CreatedAt;
+}
+
 export interface Database {
   users: UsersTable;
   sign_in_attempts: SignInAttemptsTable;
@@ -223,6 +233,7 @@ export interface Database {
   notification_settings: NotificationSettingsTable;
   push_subscriptions: PushSubscriptionsTable;
   notifications: NotificationsTable;
+  blends: BlendsTable;
 }
 
 export type User = Selectable<UsersTable>;

@@ -138,8 +138,36 @@ async function loadDemoLocked(db: Kysely<Database>, at: Date) {
         .execute();
     }
   }
+  await loadDemoBlends(db, userIds);
   await loadDemoPlantings(db, userIds, at);
   return userIds;
+}
+
+// ——— the club's saved blends ———————————————————————————————————————————————————————————————————
+// Invented mixes the demo club keeps on its lease; shares are parts of each species' pure-stand rate.
+const DEMO_BLENDS = [
+  { property: 'Foxglove Hollow Lease', name: 'Fall clover and cereal', parts: [{ speciesId: 'white-clover', share: 0.5 }, { speciesId: 'cereal-rye', share: 0.5 }] },
+  { property: 'Foxglove Hollow Lease', name: 'Brassica and oats', parts: [{ speciesId: 'turnip', share: 0.4 }, { speciesId: 'forage-radish', share: 0.3 }, { speciesId: 'oats', share: 0.5 }] },
+  { property: 'Brindle Ridge', name: 'Summer peas', parts: [{ speciesId: 'cowpeas', share: 0.7 }, { speciesId: 'buckwheat', share: 0.3 }] },
+];
+
+async function loadDemoBlends(db: Kysely<Database>, userIds: Record<string, string>) {
+  for (const blend of DEMO_BLENDS) {
+    const property = await db
+      .selectFrom('properties')
+      .innerJoin('memberships', 'memberships.property_id', 'properties.id')
+      .select('properties.id')
+      .where('properties.name', '=', blend.property)
+      .where('memberships.user_id', '=', userIds.owner)
+      .executeTakeFirst();
+    if (!property) continue;
+    const existing = await db.selectFrom('blends').select('id').where('property_id', '=', property.id).where('name', '=', blend.name).executeTakeFirst();
+    if (existing) continue;
+    await db
+      .insertInto('blends')
+      .values({ property_id: property.id, name: blend.name, parts: JSON.stringify(blend.parts), created_by: userIds.manager })
+      .execute();
+  }
 }
 
 // ——— plantings at every stage ————————————————————————————————————————————————————————————————

@@ -52,7 +52,8 @@ async function main() {
     env.NEXTAUTH_URL = env.SOWCAST_BASE_URL;
     env.APP_BASE_URL = env.SOWCAST_BASE_URL;
     env.NEXTAUTH_SECRET = randomBytes(32).toString('base64url');
-    env.NEXT_DIST_DIR = '.next-test';
+    // Another folder lets two runs share one checkout (Next then lists it in tsconfig.json: revert that).
+    env.NEXT_DIST_DIR = process.env.SOWCAST_TEST_DIST_DIR || '.next-test';
     env.TEST_ARTIFACTS_DIR = path.join(root, '.test-artifacts');
     mkdirSync(env.TEST_ARTIFACTS_DIR, { recursive: true });
 

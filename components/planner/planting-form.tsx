@@ -16,6 +16,7 @@ import type { Plan } from '@/lib/schedule/types';
 import { METHOD_LABELS, METHODS, plantingSchema, SEASONS, SOIL_TEXTURES } from '@/lib/validations/planting';
 import { plannerKeys } from './keys';
 import { PlanSteps } from './plan-steps';
+import { SavedBlends } from './saved-blends';
 import { SeedingCompare } from './seeding-compare';
 
 type Choice = 'usual' | 'yes' | 'no';
@@ -132,12 +133,14 @@ function Checkbox({ id, label, hint, ...rest }: { id: string; label: string; hin
 
 export function PlantingForm({
   plotId,
+  propertyId,
   plotCover,
   defaultSeedDate,
   defaultReadyBy,
   today,
 }: {
   plotId: string;
+  propertyId: string;
   plotCover: string;
   defaultSeedDate: string;
   defaultReadyBy: string | null;
@@ -155,6 +158,7 @@ export function PlantingForm({
     setError,
     watch,
     getValues,
+    setValue,
     formState: { errors },
   } = useForm<PlantingFields>({
     resolver,
@@ -257,6 +261,7 @@ export function PlantingForm({
 
         <fieldset className="space-y-3">
           <legend className="mb-2 text-base font-semibold">Blend</legend>
+          <SavedBlends propertyId={propertyId} currentParts={() => getValues('blend')} onApply={(parts) => blend.replace(parts)} />
           <p className="text-sm text-loam-soft">
             A share of 1 sows the species at its full pure-stand rate; in a mix, give each a part (for example 0.5 and 0.5).
           </p>
@@ -451,7 +456,16 @@ export function PlantingForm({
         </section>
       ) : null}
 
-      <SeedingCompare plotId={plotId} planting={() => toPlantingBody(getValues())} defaultDate={defaultSeedDate} />
+      <SeedingCompare
+        plotId={plotId}
+        planting={() => toPlantingBody(getValues())}
+        defaultDate={defaultSeedDate}
+        onPick={(date) => {
+          setValue('targetSeedDate', date, { shouldDirty: true, shouldValidate: true });
+          setPreview(null);
+          document.getElementById('targetSeedDate')?.focus();
+        }}
+      />
     </Card>
   );
 }

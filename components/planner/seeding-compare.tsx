@@ -1,7 +1,7 @@
 'use client';
 
 import { useMutation } from '@tanstack/react-query';
-import { CircleCheck, CircleX, Scale } from 'lucide-react';
+import { CalendarCheck, CircleCheck, CircleX, Scale } from 'lucide-react';
 import { useState } from 'react';
 import { Button } from '@/components/ui/button';
 import { Input } from '@/components/ui/field';
@@ -19,15 +19,20 @@ export function SeedingCompare({
   plotId,
   planting,
   defaultDate,
+  onPick,
 }: {
   plotId: string;
   planting: () => Record<string, unknown>;
   defaultDate: string;
+  /** Puts the chosen day into the planting form as its planned seeding date. */
+  onPick: (date: string) => void;
 }) {
+  const [picked, setPicked] = useState<string | null>(null);
   const [dates, setDates] = useState<string[]>([defaultDate, addDays(defaultDate, 7), '']);
   const compare = useMutation({
     mutationFn: (seedDates: string[]) =>
       apiFetch<{ options: SeedingOption[] }>(`/api/plots/${plotId}/plan/compare`, { method: 'POST', body: { planting: planting(), seedDates } }),
+    onSuccess: () => setPicked(null),
   });
   const chosen = dates.filter(Boolean);
 
@@ -37,7 +42,7 @@ export function SeedingCompare({
         <h3 id="compare-heading" className="text-lg font-semibold">
           Compare seeding dates
         </h3>
-        <p className="text-sm text-loam-soft">Two or three days for the blend above, judged against the stored forecast. Nothing is saved.</p>
+        <p className="text-sm text-loam-soft">Two or three days for the blend above, judged against the stored forecast. Nothing is saved; picking a day puts it in the form as the planned seeding date.</p>
       </div>
       <div className="flex flex-wrap items-end gap-3">
         {dates.map((date, i) => (
@@ -97,6 +102,18 @@ export function SeedingCompare({
                   </li>
                 ))}
               </ul>
+              <Button
+                variant={picked === option.seedDate ? 'primary' : 'secondary'}
+                size="sm"
+                aria-pressed={picked === option.seedDate}
+                onClick={() => {
+                  setPicked(option.seedDate);
+                  onPick(option.seedDate);
+                }}
+              >
+                <CalendarCheck className="size-4" aria-hidden="true" />
+                {picked === option.seedDate ? `Seeding set to ${formatLocalDate(option.seedDate)}` : 'Plan seeding on this day'}
+              </Button>
             </article>
           ))}
         </div>

@@ -2,6 +2,7 @@ import type { Migration, MigrationProvider } from 'kysely';
 import * as m0001 from './0001_foundation';
 import * as m0002 from './0002_plantings';
 import * as m0003 from './0003_forecasts_notifications';
+import * as m0004 from './0004_blends';
 
 // Listed here rather than read from disk, so the same list works under tsx, vitest and Next's bundler.
 // A new migration: add a file `NNNN_name.ts` with `up`/`down`, then one line below.
@@ -9,6 +10,7 @@ export const migrations: Record<string, Migration> = {
   '0001_foundation': m0001,
   '0002_plantings': m0002,
   '0003_forecasts_notifications': m0003,
+  '0004_blends': m0004,
 };
 
 export const migrationProvider: MigrationProvider = {

@@ -23,6 +23,13 @@ const blendPart = z.object({
     .max(1, 'Share must be at most 1 (the full pure-stand rate)'),
 });
 
+/** A blend's rows: shared by the planting form and the property's saved blends. */
+export const blendParts = z
+  .array(blendPart, { error: 'Blend must list species' })
+  .min(1, 'Pick at least one species')
+  .max(8, 'A blend holds at most 8 species')
+  .refine((parts) => new Set(parts.map((p) => p.speciesId)).size === parts.length, 'Each species may appear once in a blend');
+
 const herbicide = z
   .object({
     productName: requiredText('Herbicide product name', 120),
@@ -71,11 +78,7 @@ export const plantingSchema = z
   .object({
     season: z.enum(SEASONS, { error: 'Season must be spring or fall' }),
     method: z.enum(METHODS, { error: 'Method must be spray-and-seed, prepared-seedbed or frost-seeding' }),
-    blend: z
-      .array(blendPart, { error: 'Blend must list species' })
-      .min(1, 'Pick at least one species')
-      .max(8, 'A blend holds at most 8 species')
-      .refine((parts) => new Set(parts.map((p) => p.speciesId)).size === parts.length, 'Each species may appear once in a blend'),
+    blend: blendParts,
     targetSeedDate: localDate('Planned seeding date'),
     readyBy: optionalLocalDate('Ready-by date'),
     clearBrush: z.boolean().optional(),

@@ -100,6 +100,53 @@ describe('the plot planner', () => {
     await context.close();
   });
 
+  it('starts a planting from a saved blend of the property and takes a seeding day from the comparison', async () => {
+    const context = await browser.newContext({ viewport: DESKTOP });
+    const page = await context.newPage();
+    const manager = user('manager');
+    await signIn(page, manager.email, manager.password);
+    await openCreeksideStrip(page);
+
+    // The demo club keeps "Fall clover and cereal" (white clover 0.5 + cereal rye 0.5) on its lease.
+    const saved = page.getByLabel('Saved blends of this property', { exact: true });
+    await expect.poll(() => saved.locator('option').count()).toBeGreaterThan(1);
+    await saved.selectOption({ label: 'Fall clover and cereal' });
+    await page.getByRole('button', { name: 'Use this blend' }).click();
+    expect(await page.getByLabel('Species 1', { exact: true }).inputValue()).toBe('white-clover');
+    expect(await page.getByLabel('Species 2', { exact: true }).inputValue()).toBe('cereal-rye');
+
+    // Keep the current rows under a new name; the same name again is refused with a reason.
+    const name = `Lease mix ${Date.now()}`;
+    await page.getByLabel('Keep the blend above as', { exact: true }).fill(name);
+    await page.getByRole('button', { name: 'Save blend' }).click();
+    await expect.poll(() => page.getByText(`Saved the blend “${name}”.`).count()).toBe(1);
+    await page.getByLabel('Keep the blend above as', { exact: true }).fill(name.toUpperCase());
+    await page.getByRole('button', { name: 'Save blend' }).click();
+    await expect.poll(() => page.getByText('This property already has a blend with that name').count()).toBe(1);
+
+    await page.getByLabel('Season', { exact: true }).selectOption('spring');
+    await page.getByLabel('Method', { exact: true }).selectOption('spray-and-seed');
+    await page.getByLabel('Product name', { exact: true }).fill('Generic glyphosate 41%');
+    await page.getByLabel('Rate given as', { exact: true }).selectOption('percent-solution');
+    await page.getByLabel(/^Rate \(% solution\)/).fill('2');
+    await page.getByLabel('Sprayer tank (gal)', { exact: true }).fill('4');
+    await page.getByLabel('Spray volume (gal per acre)', { exact: true }).fill('15');
+
+    const second = `${seedYear}-04-03`;
+    await page.getByLabel('Seeding day 1', { exact: true }).fill(seedDate);
+    await page.getByLabel('Seeding day 2', { exact: true }).fill(second);
+    await page.getByRole('button', { name: 'Compare', exact: true }).click();
+    const options = page.locator('section[aria-labelledby="compare-heading"] article');
+    await expect.poll(() => options.count()).toBe(2);
+    expect(await options.nth(0).getByText('Emergence').count()).toBe(1);
+    expect(await options.nth(0).getByText('Frost margin').count()).toBe(1);
+    await options.nth(1).getByRole('button', { name: 'Plan seeding on this day' }).click();
+    expect(await page.getByLabel('Planned seeding date', { exact: true }).inputValue()).toBe(second);
+    expect(await options.nth(1).getByRole('button', { name: /^Seeding set to/ }).getAttribute('aria-pressed')).toBe('true');
+    await screenshot(page, 'planner-compare-desktop');
+    await context.close();
+  });
+
   it('shows the demo viewer the plan without planning, assigning or completing controls', async () => {
     const context = await browser.newContext({ viewport: PHONE });
     const page = await context.newPage();

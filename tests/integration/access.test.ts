@@ -204,6 +204,49 @@ const CASES: Case[] = [
   },
   {
     method: 'GET',
+    route: '/api/properties/[propertyId]/blends',
+    expect: READ,
+    target: async (fx) => {
+      await fx.db
+        .insertInto('blends')
+        .values({ property_id: fx.propertyB.id, name: `Other ${randomUUID()}`, parts: JSON.stringify([{ speciesId: 'white-clover', share: 1 }]) })
+        .execute();
+      return { path: `/api/properties/${fx.propertyA.id}/blends` };
+    },
+    check: (res, fx) => {
+      for (const b of res.body.blends) expect(b.propertyId).toBe(fx.propertyA.id);
+    },
+  },
+  {
+    method: 'POST',
+    route: '/api/properties/[propertyId]/blends',
+    expect: managerWrite(201),
+    target: (fx) => ({
+      path: `/api/properties/${fx.propertyA.id}/blends`,
+      body: { name: `Blend ${randomUUID()}`, parts: [{ speciesId: 'white-clover', share: 0.5 }, { speciesId: 'winter-wheat', share: 0.5 }] },
+    }),
+    snapshot: (fx) => fx.db.selectFrom('blends').select((eb) => eb.fn.countAll<string>().as('n')).where('property_id', '=', fx.propertyA.id).executeTakeFirst(),
+    check: (res, fx) => expect(res.body.blend.propertyId).toBe(fx.propertyA.id),
+  },
+  {
+    method: 'DELETE',
+    route: '/api/properties/[propertyId]/blends/[blendId]',
+    expect: managerWrite(204),
+    target: async (fx) => {
+      const row = await fx.db
+        .insertInto('blends')
+        .values({ property_id: fx.propertyA.id, name: `Doomed ${randomUUID()}`, parts: JSON.stringify([{ speciesId: 'white-clover', share: 1 }]) })
+        .returning('id')
+        .executeTakeFirstOrThrow();
+      return { path: `/api/properties/${fx.propertyA.id}/blends/${row.id}`, context: { blendId: row.id } };
+    },
+    snapshot: (fx, t) => fx.db.selectFrom('blends').select('id').where('id', '=', t.context!.blendId).executeTakeFirst(),
+    check: async (_res, fx, _actor, t) => {
+      expect(await fx.db.selectFrom('blends').select('id').where('id', '=', t.context!.blendId).executeTakeFirst()).toBeUndefined();
+    },
+  },
+  {
+    method: 'GET',
     route: '/api/plots/[plotId]',
     expect: READ,
     target: (fx) => ({ path: `/api/plots/${fx.plotA.id}` }),

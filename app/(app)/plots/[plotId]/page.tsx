@@ -97,7 +97,7 @@ export default async function PlotPage({ params }: { params: Params }) {
       <PlotPlantings plotId={plotId} propertyId={plot.propertyId} initial={plantings} canManage={canManage} canWork={canWork} today={today} />
 
       {canManage ? (
-        <PlantingForm plotId={plotId} plotCover={plot.cover} defaultSeedDate={defaultSeedDate} defaultReadyBy={readyBy} today={today} />
+        <PlantingForm plotId={plotId} propertyId={plot.propertyId} plotCover={plot.cover} defaultSeedDate={defaultSeedDate} defaultReadyBy={readyBy} today={today} />
       ) : null}
     </div>
   );
