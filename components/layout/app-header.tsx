@@ -12,8 +12,9 @@ export function AppHeader({ userName }: { userName: string }) {
           <SignOutButton />
         </div>
         <div className="order-3 basis-full sm:hidden" aria-hidden="true" />
-        <nav aria-label="Main" className="order-4 sm:order-2">
-          <ul className="flex gap-1">
+        {/* On a phone the row scrolls sideways rather than pushing the page wider than the screen. */}
+        <nav aria-label="Main" className="order-4 -mx-4 w-[calc(100%+2rem)] overflow-x-auto px-4 sm:order-2 sm:mx-0 sm:w-auto sm:overflow-visible sm:px-0">
+          <ul className="flex gap-1 whitespace-nowrap">
             <li>
               <NavLink href="/dashboard">Today</NavLink>
             </li>

@@ -13,7 +13,7 @@ export function NavLink({ href, children }: { href: string; children: ReactNode 
       href={href}
       aria-current={current ? 'page' : undefined}
       className={cn(
-        'inline-flex min-h-11 items-center rounded-lg px-3 text-base font-medium',
+        'inline-flex min-h-11 items-center rounded-lg px-2.5 text-base font-medium sm:px-3',
         current ? 'bg-clover-light text-clover-dark' : 'text-loam-soft hover:bg-ground-line/60 hover:text-loam',
       )}
     >

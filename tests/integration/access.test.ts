@@ -434,6 +434,18 @@ const CASES: Case[] = [
     },
   },
   {
+    // The plot's weather chart: read-only, for everyone who may see the plot.
+    method: 'GET',
+    route: '/api/plots/[plotId]/weather',
+    expect: READ,
+    target: (fx) => ({ path: `/api/plots/${fx.plotA.id}/weather` }),
+    check: (res, fx) => {
+      expect(res.body.timeZone).toBe('America/Chicago');
+      expect(['no-forecast', 'ready', 'no-days']).toContain(res.body.state);
+      expect(res.text).not.toContain(fx.plotB.id);
+    },
+  },
+  {
     // A person's own settings: any signed-in person, nobody else's.
     method: 'GET',
     route: '/api/settings/notifications',
@@ -753,6 +765,7 @@ describe('a member of property A using the ids of property B', () => {
     { method: 'GET', path: (f: Fixture) => `/api/properties/${f.propertyB.id}/invitations` },
     { method: 'POST', path: (f: Fixture) => `/api/steps/${f.stepB.id}/complete`, body: { status: 'done' } },
     { method: 'GET', path: (f: Fixture) => `/api/properties/${f.propertyB.id}/weather` },
+    { method: 'GET', path: (f: Fixture) => `/api/plots/${f.plotB.id}/weather` },
   ] as const;
 
   for (const actor of MEMBERS) {

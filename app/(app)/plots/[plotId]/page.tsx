@@ -7,6 +7,7 @@ import { PlotPlantings } from '@/components/planner/plot-plantings';
 import { RoleBadge } from '@/components/properties/role-badge';
 import { Card, CardHeader } from '@/components/ui/card';
 import { PageHeader } from '@/components/ui/page-header';
+import { PlotWeatherChart } from '@/components/weather/plot-weather-chart';
 import { now } from '@/lib/clock';
 import { formatAcres } from '@/lib/client/format';
 import { toPlotDto } from '@/lib/data/plots';
@@ -93,6 +94,8 @@ export default async function PlotPage({ params }: { params: Params }) {
           ) : null}
         </dl>
       </Card>
+
+      <PlotWeatherChart plotId={plotId} />
 
       <PlotPlantings plotId={plotId} propertyId={plot.propertyId} initial={plantings} canManage={canManage} canWork={canWork} today={today} />
 
