@@ -54,6 +54,12 @@ const FULLCALENDAR_THEME = {
   '--fc-neutral-bg-color': '#f7f4ec',
 } as CSSProperties;
 
+/**
+ * A day's events plot by plot, each planting's steps in plan order (the spray above its seeding), as the
+ * route sorts them (compareEvents in lib/planning/calendar-events.ts) — not FullCalendar's default, by title.
+ */
+const EVENT_ORDER = 'start,plotName,plotId,plantingId,order';
+
 interface PendingMove {
   event: CalendarEvent;
   date: string;
@@ -152,7 +158,8 @@ export function SeasonCalendar({ todayHint }: { todayHint?: string }) {
         classNames: ['sowcast-event', `sowcast-kind-${e.kind}`, e.status !== 'planned' ? 'sowcast-finished' : ''],
         // A real link: a tap opens the step's page, and it opens in a new tab like any link.
         url: `/steps/${e.stepId}`,
-        extendedProps: { step: e },
+        // Read by EVENT_ORDER: FullCalendar sorts a day's events by fields of extendedProps.
+        extendedProps: { step: e, plotName: e.plotName, plotId: e.plotId, plantingId: e.plantingId, order: e.order },
       })),
     [events],
   );
@@ -257,6 +264,7 @@ export function SeasonCalendar({ todayHint }: { todayHint?: string }) {
                 eventStartEditable
                 eventDurationEditable={false}
                 editable={false}
+                eventOrder={EVENT_ORDER}
                 eventColor="transparent"
                 eventTextColor="#4a3b2f"
                 events={inputs}

@@ -7,6 +7,8 @@ export interface CalendarStepRow {
   kind: StepKindColumn;
   title: string;
   local_date: string;
+  /** The step's place in its planting's plan (plan order: by date, then the method's order). */
+  position: number;
   status: 'planned' | 'done' | 'skipped';
   pinned: boolean;
   recurrence: string | null;
@@ -49,6 +51,7 @@ export async function calendarSteps(o: {
       'steps.kind',
       'steps.title',
       'steps.local_date',
+      'steps.position',
       'steps.status',
       'steps.pinned',
       'steps.recurrence',

@@ -22,6 +22,9 @@ export interface CalendarEvent {
   pinned: boolean;
   plotId: string;
   plotName: string;
+  plantingId: string;
+  /** The step's place in its planting's plan, so steps on one day read in the order they are done. */
+  order: number;
   propertyId: string;
   propertyName: string;
   timeZone: string;
@@ -49,6 +52,8 @@ export function calendarEvents(rows: CalendarStepRow[], userId: string, from: st
       pinned: row.pinned,
       plotId: row.plot_id,
       plotName: row.plot_name,
+      plantingId: row.planting_id,
+      order: row.position,
       propertyId: row.property_id,
       propertyName: row.property_name,
       timeZone: row.time_zone,
@@ -77,5 +82,11 @@ export function calendarEvents(rows: CalendarStepRow[], userId: string, from: st
       canMove: row.status === 'planned' && mayMoveStep(row.role, row.assignee_id, userId),
     });
   }
-  return events.sort((a, b) => (a.start < b.start ? -1 : a.start > b.start ? 1 : a.title.localeCompare(b.title)));
+  return events.sort(compareEvents);
+}
+
+/** By day; within a day plot by plot, and each planting's steps in plan order (a spray before its seeding). */
+export function compareEvents(a: CalendarEvent, b: CalendarEvent): number {
+  if (a.start !== b.start) return a.start < b.start ? -1 : 1;
+  return a.plotName.localeCompare(b.plotName) || a.plotId.localeCompare(b.plotId) || a.plantingId.localeCompare(b.plantingId) || a.order - b.order;
 }

@@ -2,7 +2,8 @@ import { latestForecast } from '@/lib/data/forecasts';
 import { getStepRows, loadPlan, plantingPlace, saveReplan, toStepDto, withPlantingLock } from '@/lib/data/plantings';
 import { lockStep, pinStepToDate, updateStepFields } from '@/lib/data/steps';
 import { checkStepDate, replan } from '@/lib/schedule/plan';
-import { localDateOf } from '@/lib/schedule/local-dates';
+import { dayWithMonth, localDateOf } from '@/lib/schedule/local-dates';
+import { STEP_KINDS } from '@/lib/schedule/step-kinds';
 import type { Forecast, RuleDecision } from '@/lib/schedule/types';
 import { plantingSchema } from '@/lib/validations/planting';
 import { gridCellKey } from '@/lib/weather/grid';
@@ -64,7 +65,7 @@ export async function moveStep(o: {
     const input = buildPlantingInput(property, plot, plantingSchema.parse(planting.input));
     const { stored, forecast } = await storedForecast(property, o.now);
     const current = await loadPlan(planting.id, trx);
-    const decisions: RuleDecision[] = checkStepDate(input, current, row.key, o.date, stored ? forecast : null);
+    const decisions: RuleDecision[] = checkStepDate(input, current, row.key, o.date, stored ? forecast : null, o.now);
     const reasons = decisions.filter((d) => !d.ok).map((d) => d.reason);
     if (reasons.length && !(o.confirm && o.canConfirm)) {
       throw new StepMoveRefused(`${row.title} on ${o.date}: ${reasons.join('; ')}`, reasons, o.canConfirm);
@@ -81,7 +82,11 @@ export async function moveStep(o: {
       at: o.now,
     });
     const { plan, changes } = replan(input, await loadPlan(planting.id, trx), forecast, o.now);
-    const moves = await saveReplan({ plantingId: planting.id, plan, changes, movedBy: o.user.id, forecastFetchedAt: stored?.fetchedAt ?? null }, trx);
+    // What the replan moves now (a spray-and-seed spray carried to the new seeding day, the germination
+    // check after it) moved because of this person's move; its history says so beside the engine's reason.
+    const because = `with ${STEP_KINDS[row.kind].noun} moved by ${o.user.name} to ${dayWithMonth(o.date)}`;
+    const followed = changes.map((change) => ({ ...change, reason: `${change.reason} (${because})` }));
+    const moves = await saveReplan({ plantingId: planting.id, plan, changes: followed, movedBy: o.user.id, forecastFetchedAt: stored?.fetchedAt ?? null }, trx);
     const steps = (await getStepRows(planting.id, trx)).map(toStepDto);
     return { steps, decisions, confirmedDespite: reasons, moved: moves.length };
   });

@@ -853,16 +853,56 @@ export function replan(input: PlantingInput, current: Plan, forecast: Forecast, 
 /**
  * The rules' verdicts on putting one step of a plan on a given day — what the calendar shows when a
  * person drags a step ("no rain in sight; soil 44 °F, below the 45 °F minimum for white clover").
+ * `now` bounds what may be carried along (nothing goes before today); without it, nothing carried goes
+ * before the dragged day or the carried step's current date, whichever is earlier.
  */
-export function checkStepDate(input: PlantingInput, plan: Plan, stepKey: string, date: string, forecast: Forecast | null): RuleDecision[] {
+export function checkStepDate(input: PlantingInput, plan: Plan, stepKey: string, date: string, forecast: Forecast | null, now?: Date): RuleDecision[] {
   const step = plan.steps.find((s) => s.key === stepKey);
   if (!step) throw new Error(`The plan has no step "${stepKey}".`);
-  const ctx = buildContext(input, forecast, date, null, plan.steps);
+  const spray = plan.steps.find((s) => s.key === 'spray');
+  const floor = spray && spray.date < date ? spray.date : date;
+  const today = now ? localDateOf(now, input.timeZone) : floor;
+  const ctx = buildContext(input, forecast, today, now ? now.getTime() : null, plan.steps);
   for (const s of plan.steps) {
     ctx.placed.set(s.key, s);
     if (!ctx.templates.has(s.key)) ctx.templates.set(s.key, { key: s.key, kind: s.kind, after: s.after });
   }
-  return decisionsOn(ctx, stepKey, step.kind, date, untiedPredecessors(plan, step));
+  const carried = carrySprayWithSeeding(ctx, step, date);
+  const decisions = decisionsOn(ctx, stepKey, step.kind, date, untiedPredecessors(plan, step));
+  return carried ? [...decisions, carried] : decisions;
+}
+
+/**
+ * The spray a dragged spray-and-seed seeding takes along. The burndown goes on right before the seed, into
+ * cover that is still standing (methods.ts), so a planned spray nobody pinned follows the seeding to the
+ * new day, placed the way placeSprayForSeed places it — the replan after the move puts it there. A done or
+ * pinned spray stays, and the seeding is judged against it. Returns the verdict on the carried spray (and
+ * places it in `ctx`, so the seeding's own sequence reads against the new spray date), or null when
+ * nothing is carried.
+ */
+function carrySprayWithSeeding(ctx: Ctx, step: PlanStep, date: string): RuleDecision | null {
+  if (ctx.input.method !== 'spray-and-seed' || step.kind !== 'seed') return null;
+  const spray = ctx.placed.get('spray');
+  if (!spray || spray.status !== 'planned' || spray.pinned) return null;
+  const seq = ctx.params.sequence;
+  const earliest = maxDate(sprayEarliest(ctx), addDays(date, -seq.maxSprayToSeedDays));
+  // No room before the seeding (today, or the brush clearing, is in the way): the spray stays and binds.
+  if (earliest > date) return null;
+  const options = sprayOptionsFor(ctx, date);
+  const to = options ? options[0].date : clampDate(addDays(date, -seq.sprayToSeedDays), earliest, date);
+  ctx.placed.set('spray', { ...spray, date: to });
+  const gap = daysBetween(to, date);
+  const when = gap === 0 ? 'the morning of seeding' : `${gap} day${gap === 1 ? '' : 's'} before seeding`;
+  const [from, onto] = dayPair(spray.date, to);
+  const moves = spray.date === to ? `spraying stays on ${from}, ${when}` : `spraying moves with it from ${from} to ${onto}, ${when}`;
+  if (options) {
+    const window = ctx.spray && inHorizon(ctx.fc, to) ? sprayDay(ctx.spray, to).decision : null;
+    const decision: RuleDecision = { rule: 'spray-window', ok: true, reason: window ? `${moves}: ${window.reason}` : moves };
+    return window?.marginal ? { ...decision, marginal: true } : decision;
+  }
+  // Only a forecast can rule every day out (sprayTier passes days it does not cover), so ctx.spray is set here.
+  const none = sprayDay(ctx.spray as SprayContext, to).decision.reason;
+  return { rule: 'spray-window', ok: false, reason: `no spray window in the ${seq.maxSprayToSeedDays} days before seeding — ${none}` };
 }
 
 /** Steps that go with the seeding (its till, its lime) move with it when it is dragged; what binds the new

@@ -146,6 +146,39 @@ describe('GET /api/calendar', () => {
     expect(others.every((e: { canMove: boolean }) => !e.canMove)).toBe(true);
   });
 
+  it('lists a day’s steps in the plan’s order, not by title', async () => {
+    // A prepared seedbed on tilled ground, with lime, a cover pass and fertilizer: the ground is worked, the lime
+    // worked in, the seed broadcast and covered, the fertilizer spread with the seeding, all on one day (the
+    // method's order, lib/schedule/methods.ts; the order of work itself is common practice, no source). By
+    // title the day would read Broadcast seed, Cover the seed, Fertilize, Lime, Rake or till.
+    // A property of its own, so the other checks' counts on property A stay as they are.
+    const property = await createProperty(ownerA.client, { timeZone: 'America/Chicago' });
+    const plot = await createPlot(ownerA.client, property.id, { cover: 'tilled' });
+    const res = await ownerA.client.post(`/api/plots/${plot.id}/plantings`, {
+      season: 'fall',
+      method: 'prepared-seedbed',
+      blend: [{ speciesId: 'white-clover', share: 1 }],
+      targetSeedDate: '2027-09-08',
+      coverSeed: true,
+      lime: { tonsPerAcre: 1 },
+      fertilizer: { grade: [13, 13, 13], target: { n: 20 } },
+    });
+    expect(res.status, res.text).toBe(201);
+    const planned = res.body.steps as { id: string; kind: string; date: string }[];
+    const seedDay = planned.find((s) => s.kind === 'seed')!.date;
+    const sameDay = planned.filter((s) => s.date === seedDay);
+    expect(sameDay.map((s) => s.kind)).toEqual(['rake-till', 'lime', 'seed', 'cover-seed', 'fertilize']);
+
+    const events = (await calendar(ownerA, `from=${seedDay}&to=${seedDay}&plot=${plot.id}`)).body.events as { stepId: string; title: string; order: number; plantingId: string }[];
+    expect(events.map((e) => e.stepId)).toEqual(sameDay.map((s) => s.id));
+    expect(events.map((e) => e.title).sort()).not.toEqual(events.map((e) => e.title)); // title order would differ
+    expect(new Set(events.map((e) => e.plantingId))).toEqual(new Set([res.body.planting.id]));
+    // The order field is the stored position: increasing through the day, the way FullCalendar's eventOrder reads it.
+    const positions = await db.selectFrom('steps').select(['id', 'position']).where('planting_id', '=', res.body.planting.id).execute();
+    expect(events.map((e) => e.order)).toEqual(sameDay.map((s) => positions.find((p) => p.id === s.id)!.position));
+    expect([...events.map((e) => e.order)].sort((a, b) => a - b)).toEqual(events.map((e) => e.order));
+  });
+
   it('refuses a missing, reversed, too long or malformed range, naming the field', async () => {
     const cases: [string, string][] = [
       ['to=2027-01-31', 'from'],

@@ -135,6 +135,38 @@ describe('POST /api/steps/[stepId]/move', () => {
     expect(res.body.reasons.some((r: string) => /soil/i.test(r) && /40 °F/.test(r))).toBe(true);
   });
 
+  it('a spray-and-seed seeding dragged days later takes its unpinned spray along, with history; a pinned spray refuses', async () => {
+    // Spray-and-seed sprays right before seeding, a day before by default and two at most (common practice,
+    // no source; lib/schedule/methods.ts). 2027-08-24 − 1 day = 2027-08-23, by hand.
+    const p = await plant(frostPlotId, { season: 'fall', targetSeedDate: '2027-08-20' });
+    const [spray, seed] = [p.step('spray'), p.step('seed')];
+    expect([spray.date, seed.date]).toEqual(['2027-08-19', '2027-08-20']);
+    const res = await manager.client.post(`/api/steps/${seed.id}/move`, { date: '2027-08-24' });
+    expect(res.status, res.text).toBe(200);
+    expect(res.body.confirmedDespite).toEqual([]);
+    expect(await stepRow(seed.id)).toMatchObject({ local_date: '2027-08-24', pinned: true });
+    expect(await stepRow(spray.id)).toMatchObject({ local_date: '2027-08-23', pinned: false, status: 'planned' });
+    const [sprayMove] = await movesOf(spray.id);
+    expect(sprayMove).toMatchObject({ from_date: '2027-08-19', to_date: '2027-08-23', moved_by: manager.user.id });
+    // Weekdays of 2027-08-19 and 2027-08-23 as Intl (ECMA-402) names them.
+    const weekday = (date: string) => new Intl.DateTimeFormat('en-US', { weekday: 'short', timeZone: 'UTC' }).format(new Date(`${date}T12:00:00Z`));
+    expect(sprayMove.reason).toContain(`moved spraying from ${weekday('2027-08-19')} 19 to ${weekday('2027-08-23')} 23: 1 day before seeding`);
+    expect(sprayMove.reason).toMatch(new RegExp(`\\(with seeding moved by ${manager.user.name} to ${weekday('2027-08-24')} 24 Aug\\)$`));
+    const detail = await viewer.client.get(`/api/steps/${spray.id}`);
+    expect(detail.body.moves.map((m: { movedBy: { name: string } }) => m.movedBy?.name)).toEqual([manager.user.name]);
+
+    // Pinned, the spray stays where it is, and four days past it is more than spray-and-seed allows.
+    const q = await plant(frostPlotId, { season: 'fall', targetSeedDate: '2027-08-20' });
+    const [pinnedSpray, otherSeed] = [q.step('spray'), q.step('seed')];
+    expect((await owner.client.patch(`/api/steps/${pinnedSpray.id}`, { pinned: true })).status).toBe(200);
+    const before = [await stepRow(pinnedSpray.id), await stepRow(otherSeed.id)];
+    const refused = await manager.client.post(`/api/steps/${otherSeed.id}/move`, { date: '2027-08-24' });
+    expect(refused.status, refused.text).toBe(409);
+    expect(refused.body.reasons).toEqual(['5 days after spraying; spray-and-seed seeds within 2 days']);
+    expect([await stepRow(pinnedSpray.id), await stepRow(otherSeed.id)]).toEqual(before);
+    expect(await movesOf(pinnedSpray.id)).toEqual([]);
+  });
+
   it('a done step cannot be moved (409), and bad input names the field', async () => {
     const p = await plant(frostPlotId, { season: 'fall', targetSeedDate: '2027-08-24' });
     const spray = p.step('spray');

@@ -9,7 +9,7 @@ export default function CalendarPage() {
     <>
       <PageHeader
         title="Season calendar"
-        description="Every step of every plot you can see, on one calendar. Drag a step to another day to move it; Sowcast checks the day first."
+        description="Every step of every plot you can see, on one calendar. Drag a step you may move to another day; Sowcast checks the day first."
       />
       <SeasonCalendar />
     </>
