@@ -75,6 +75,9 @@ export interface PlotsTable {
   sun: PlotSun;
   soil_ph: number | null;
   notes: string | null;
+  boundary: Json<unknown> | null;
+  boundary_acres: number | null;
+  boundary_upload_id: string | null;
   created_at: CreatedAt;
   updated_at: UpdatedAt;
 }
@@ -128,6 +131,7 @@ export interface StepsTable {
   reason: string;
   recurrence: string | null;
   notes: string | null;
+  done_record: Json<unknown> | null;
   updated_at: UpdatedAt;
 }
 
@@ -218,6 +222,140 @@ export interface BlendsTable {
   created_at: CreatedAt;
 }
 
+export type UploadKind = 'photo' | 'soil-test' | 'boundary';
+
+export interface UploadsTable {
+  id: Generated<string>;
+  property_id: string;
+  plot_id: string | null;
+  observation_id: string | null;
+  kind: UploadKind;
+  filename: string;
+  content_type: string;
+  size_bytes: number;
+  sha256: string;
+  storage_key: string;
+  thumb_key: string | null;
+  width: number | null;
+  height: number | null;
+  caption: string | null;
+  uploaded_by: string | null;
+  created_at: CreatedAt;
+}
+
+export type WeedPressure = 'none' | 'light' | 'moderate' | 'heavy';
+export type StandVerdict = 'good' | 'fair' | 'poor';
+
+export interface ObservationsTable {
+  id: Generated<string>;
+  planting_id: string;
+  plot_id: string;
+  step_id: string | null;
+  observed_on: LocalDate;
+  observed_at: Date | string;
+  observer_id: string | null;
+  stand_rating: number;
+  frame_counts: Json<number[]>;
+  frame_sq_ft: ColumnType<number, number | undefined, number>;
+  plants_per_sq_ft: number;
+  expected_per_sq_ft: number | null;
+  expected_source: string | null;
+  weed_pressure: WeedPressure;
+  verdict: StandVerdict;
+  notes: string | null;
+  created_at: CreatedAt;
+}
+
+export type ApplicationKind = 'herbicide' | 'fertilizer' | 'lime';
+
+/** Append-only (a trigger refuses UPDATE): a correction is a new row with supersedes_id. */
+export interface ApplicationRecordsTable {
+  id: Generated<string>;
+  property_id: string;
+  plot_id: string | null;
+  plot_name: string;
+  step_id: string | null;
+  supersedes_id: string | null;
+  correction_reason: string | null;
+  kind: ApplicationKind;
+  applied_at: Date | string;
+  applied_on: LocalDate;
+  time_zone: string;
+  area_acres: number;
+  location: string | null;
+  site: string | null;
+  product_name: string;
+  epa_reg_no: string | null;
+  restricted_use: ColumnType<boolean, boolean | undefined, never>;
+  active_ingredient_pct: number | null;
+  rate_value: number;
+  rate_unit: string;
+  total_product_value: number;
+  total_product_unit: string;
+  water_gal: number | null;
+  sprayer: string | null;
+  applicator_name: string;
+  applicator_license: string | null;
+  wind_mph: number | null;
+  wind_direction: string | null;
+  air_temp_f: number | null;
+  humidity_pct: number | null;
+  weather_source: 'forecast' | 'observation' | 'entered' | null;
+  notes: string | null;
+  recorded_by: string | null;
+  recorded_at: CreatedAt;
+}
+
+export interface SoilTestsTable {
+  id: Generated<string>;
+  property_id: string;
+  plot_id: string;
+  sampled_on: LocalDate | null;
+  lab_name: string | null;
+  ph: number | null;
+  buffer_ph: number | null;
+  p_ppm: number | null;
+  k_ppm: number | null;
+  organic_matter_pct: number | null;
+  lime_tons_per_acre: number | null;
+  n_lb_per_acre: number | null;
+  p2o5_lb_per_acre: number | null;
+  k2o_lb_per_acre: number | null;
+  recommendation: string | null;
+  upload_id: string | null;
+  created_by: string | null;
+  created_at: CreatedAt;
+}
+
+export type ExpenseCategory = 'seed' | 'herbicide' | 'fertilizer' | 'lime' | 'fuel' | 'equipment' | 'labour' | 'other';
+
+export interface ExpensesTable {
+  id: Generated<string>;
+  property_id: string;
+  plot_id: string | null;
+  season: 'spring' | 'fall';
+  year: number;
+  spent_on: LocalDate;
+  category: ExpenseCategory;
+  description: string;
+  amount_cents: number;
+  labour_hours: number | null;
+  paid_by: string | null;
+  split_among: ColumnType<string[], string | undefined, string>;
+  created_by: string | null;
+  created_at: CreatedAt;
+}
+
+export interface CalendarFeedsTable {
+  id: Generated<string>;
+  user_id: string;
+  token_hash: string;
+  label: string | null;
+  created_at: CreatedAt;
+  last_used_at: Date | null;
+  revoked_at: Date | null;
+}
+
 export interface Database {
   users: UsersTable;
   sign_in_attempts: SignInAttemptsTable;
@@ -234,6 +372,12 @@ export interface Database {
   push_subscriptions: PushSubscriptionsTable;
   notifications: NotificationsTable;
   blends: BlendsTable;
+  uploads: UploadsTable;
+  observations: ObservationsTable;
+  application_records: ApplicationRecordsTable;
+  soil_tests: SoilTestsTable;
+  expenses: ExpensesTable;
+  calendar_feeds: CalendarFeedsTable;
 }
 
 export type User = Selectable<UsersTable>;

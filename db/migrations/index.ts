@@ -3,6 +3,7 @@ import * as m0001 from './0001_foundation';
 import * as m0002 from './0002_plantings';
 import * as m0003 from './0003_forecasts_notifications';
 import * as m0004 from './0004_blends';
+import * as m0005 from './0005_field_records';
 
 // Listed here rather than read from disk, so the same list works under tsx, vitest and Next's bundler.
 // A new migration: add a file `NNNN_name.ts` with `up`/`down`, then one line below.
@@ -11,6 +12,7 @@ export const migrations: Record<string, Migration> = {
   '0002_plantings': m0002,
   '0003_forecasts_notifications': m0003,
   '0004_blends': m0004,
+  '0005_field_records': m0005,
 };
 
 export const migrationProvider: MigrationProvider = {

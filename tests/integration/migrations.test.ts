@@ -4,7 +4,7 @@ import { migrateToLatest, migratorFor } from '@/db/migrate';
 import { migrations } from '@/db/migrations';
 import { freshDatabase, type FreshDatabase } from '../support/db';
 
-const TABLES = ['users', 'sign_in_attempts', 'properties', 'memberships', 'invitations', 'plots', 'plantings', 'steps', 'step_moves', 'forecasts', 'forecast_status', 'notification_settings', 'push_subscriptions', 'notifications', 'blends'];
+const TABLES = ['users', 'sign_in_attempts', 'properties', 'memberships', 'invitations', 'plots', 'plantings', 'steps', 'step_moves', 'forecasts', 'forecast_status', 'notification_settings', 'push_subscriptions', 'notifications', 'blends', 'uploads', 'observations', 'application_records', 'soil_tests', 'expenses', 'calendar_feeds'];
 const ENUM_TYPES = ['property_role', 'land_tenure', 'plot_cover', 'plot_sun', 'planting_method', 'planting_status', 'step_kind', 'step_status', 'notification_channel'];
 
 // Catalog queries follow the PostgreSQL manual: information_schema.tables (ch. 37) and pg_type /
