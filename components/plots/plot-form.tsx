@@ -13,6 +13,7 @@ import { apiFetch, queryKeys } from '@/lib/client/api';
 import { applyServerErrors, withoutNaN } from '@/lib/client/forms';
 import type { PlotDto } from '@/lib/data/plots';
 import { PLOT_COVER_LABELS, PLOT_COVERS, PLOT_SUN_LABELS, PLOT_SUNS, plotSchema } from '@/lib/validations/plot';
+import { useHydrated } from '@/lib/client/use-hydrated';
 
 type PlotFields = {
   name: string;
@@ -30,6 +31,8 @@ export function PlotForm({ propertyId, plot }: { propertyId: string; plot?: Plot
   const router = useRouter();
   const queryClient = useQueryClient();
   const [formMessage, setFormMessage] = useState<string | null>(null);
+  // Until hydration a click would submit the form natively; the button waits for React.
+  const hydrated = useHydrated();
   const {
     register,
     handleSubmit,
@@ -70,7 +73,7 @@ export function PlotForm({ propertyId, plot }: { propertyId: string; plot?: Plot
   const hasErrors = Object.keys(errors).length > 0;
 
   return (
-    <form onSubmit={onSubmit} noValidate className="space-y-6">
+    <form method="post" onSubmit={onSubmit} noValidate className="space-y-6">
       {formMessage ? <Notice tone="error">{formMessage}</Notice> : null}
       {!formMessage && hasErrors ? <Notice tone="error">Nothing was saved yet. Check the fields marked below.</Notice> : null}
       <Card>
@@ -128,7 +131,7 @@ export function PlotForm({ propertyId, plot }: { propertyId: string; plot?: Plot
         <ButtonLink href={back} variant="secondary">
           Cancel
         </ButtonLink>
-        <Button type="submit" pending={isSubmitting}>
+        <Button type="submit" pending={isSubmitting} disabled={!hydrated}>
           Save plot
         </Button>
       </div>

@@ -16,6 +16,7 @@ import { applyServerErrors, withoutNaN } from '@/lib/client/forms';
 import type { PropertyDto } from '@/lib/data/properties';
 import { propertySchema, TENURE_LABELS, TENURES } from '@/lib/validations/property';
 import { MonthDaySelect } from './month-day-select';
+import { useHydrated } from '@/lib/client/use-hydrated';
 
 export type PropertyFields = {
   name: string;
@@ -90,6 +91,8 @@ export function PropertyForm({ timeZones, property }: { timeZones: string[]; pro
     });
   }, [timeZones]);
 
+  // Until hydration a click would submit the form natively; the button waits for React.
+  const hydrated = useHydrated();
   const {
     register,
     control,
@@ -137,7 +140,7 @@ export function PropertyForm({ timeZones, property }: { timeZones: string[]; pro
   const hasErrors = Object.keys(errors).length > 0;
 
   return (
-    <form onSubmit={onSubmit} noValidate className="space-y-6">
+    <form method="post" onSubmit={onSubmit} noValidate className="space-y-6">
       {formMessage ? <Notice tone="error">{formMessage}</Notice> : null}
       {!formMessage && hasErrors ? <Notice tone="error">Nothing was saved yet. Check the fields marked below.</Notice> : null}
 
@@ -295,7 +298,7 @@ export function PropertyForm({ timeZones, property }: { timeZones: string[]; pro
         <ButtonLink href={property ? `/properties/${property.id}` : '/properties'} variant="secondary">
           Cancel
         </ButtonLink>
-        <Button type="submit" pending={isSubmitting}>
+        <Button type="submit" pending={isSubmitting} disabled={!hydrated}>
           {property ? 'Save property' : 'Create property'}
         </Button>
       </div>

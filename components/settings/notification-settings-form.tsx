@@ -12,6 +12,7 @@ import { apiFetch } from '@/lib/client/api';
 import { applyServerErrors } from '@/lib/client/forms';
 import type { NotificationSettings } from '@/lib/data/notification-settings';
 import { notificationSettingsSchema } from '@/lib/validations/notification-settings';
+import { useHydrated } from '@/lib/client/use-hydrated';
 
 type Fields = NotificationSettings;
 const FIELD_NAMES = ['emailEnabled', 'pushEnabled', 'reminderHour', 'quietStartHour', 'quietEndHour', 'dueReminders', 'digest'] as const;
@@ -47,6 +48,8 @@ export function NotificationSettingsForm({ initial, email, zones }: { initial: N
   const [formMessage, setFormMessage] = useState<string | null>(null);
   const [saved, setSaved] = useState(false);
   const [quietOn, setQuietOn] = useState(initial.quietStartHour != null);
+  // Until hydration a click would submit the form natively; the button waits for React.
+  const hydrated = useHydrated();
   const {
     register,
     handleSubmit,
@@ -104,7 +107,7 @@ export function NotificationSettingsForm({ initial, email, zones }: { initial: N
   ) : null;
 
   return (
-    <form onSubmit={onSubmit} noValidate className="space-y-6" aria-describedby={formMessage ? `${id}-message` : undefined}>
+    <form method="post" onSubmit={onSubmit} noValidate className="space-y-6" aria-describedby={formMessage ? `${id}-message` : undefined}>
       {formMessage ? (
         <div id={`${id}-message`}>
           <Notice tone="error">{formMessage}</Notice>
@@ -251,7 +254,7 @@ export function NotificationSettingsForm({ initial, email, zones }: { initial: N
             Saved.
           </p>
         ) : null}
-        <Button type="submit" pending={isSubmitting}>
+        <Button type="submit" pending={isSubmitting} disabled={!hydrated}>
           Save settings
         </Button>
       </div>
