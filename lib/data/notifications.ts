@@ -72,8 +72,17 @@ export async function getNotification(id: string) {
   return getDb().selectFrom('notifications').selectAll().where('id', '=', id).executeTakeFirst();
 }
 
+// An invitation's message holds the acceptance link, a bearer secret (the invitations table keeps only its
+// hash). Once the e-mail is sent or given up, the row keeps the subject and push title, never the link.
+const withoutSecrets = sql<string>`case when kind = 'invitation' then jsonb_build_object(
+  'subject', message->'subject',
+  'text', 'Sent. The acceptance link is not kept after sending.',
+  'html', '',
+  'push', jsonb_build_object('title', message->'push'->'title', 'body', message->'push'->'body', 'url', '', 'tag', 'invitation')
+) else message end`;
+
 export async function markSent(id: string, at: Date) {
-  await getDb().updateTable('notifications').set({ sent_at: at, last_error: null }).where('id', '=', id).execute();
+  await getDb().updateTable('notifications').set({ sent_at: at, last_error: null, message: withoutSecrets }).where('id', '=', id).execute();
 }
 
 /** A failed send: retried later with backoff, given up after MAX_ATTEMPTS (kept, with the error). */
@@ -86,7 +95,7 @@ export async function markFailed(id: string, at: Date, error: string, attempts: 
       claimed_at: null,
       claimed_by: null,
       last_error: error.slice(0, 500),
-      ...(giveUp ? { failed_at: at } : { send_after: new Date(at.getTime() + backoffMs) }),
+      ...(giveUp ? { failed_at: at, message: withoutSecrets } : { send_after: new Date(at.getTime() + backoffMs) }),
     })
     .where('id', '=', id)
     .execute();
@@ -94,5 +103,9 @@ export async function markFailed(id: string, at: Date, error: string, attempts: 
 
 /** The row was for a channel or device that no longer exists: close it without sending. */
 export async function markDropped(id: string, at: Date, why: string) {
-  await getDb().updateTable('notifications').set({ failed_at: at, last_error: why.slice(0, 500) }).where('id', '=', id).execute();
+  await getDb()
+    .updateTable('notifications')
+    .set({ failed_at: at, last_error: why.slice(0, 500), message: withoutSecrets })
+    .where('id', '=', id)
+    .execute();
 }

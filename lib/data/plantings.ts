@@ -125,7 +125,10 @@ export async function saveReplan(
   db: Db = getDb(),
 ) {
   return inTransaction(db, async (trx) => {
-    const existing = await trx.selectFrom('steps').selectAll().where('planting_id', '=', o.plantingId).forUpdate().execute();
+    // FOR NO KEY UPDATE, not FOR UPDATE: a worker inserting notifications for these steps holds the foreign
+    // key's KEY SHARE lock on them, which FOR UPDATE would wait for (and, with that worker waiting for this
+    // planting, deadlock). Step ids never change here, so the weaker lock is enough.
+    const existing = await trx.selectFrom('steps').selectAll().where('planting_id', '=', o.plantingId).forNoKeyUpdate().execute();
     const byKey = new Map(existing.map((row) => [row.key, row]));
     const keep = new Set(o.plan.steps.map((s) => s.key));
     const ids = new Map<string, string>();
@@ -181,7 +184,7 @@ export async function withPlantingLock<T>(plantingId: string, fn: (trx: Transact
   return getDb()
     .transaction()
     .execute(async (trx) => {
-      const planting = await trx.selectFrom('plantings').selectAll().where('id', '=', plantingId).forUpdate().executeTakeFirst();
+      const planting = await trx.selectFrom('plantings').selectAll().where('id', '=', plantingId).forNoKeyUpdate().executeTakeFirst();
       return fn(trx, planting ?? null);
     });
 }
@@ -222,7 +225,7 @@ export async function recordStepOutcome(
   trx: Transaction<Database>,
   o: { stepId: string; status: 'done' | 'skipped'; date: string; userId: string; notes?: string | null; at: Date },
 ) {
-  const row = await trx.selectFrom('steps').selectAll().where('id', '=', o.stepId).forUpdate().executeTakeFirstOrThrow();
+  const row = await trx.selectFrom('steps').selectAll().where('id', '=', o.stepId).forNoKeyUpdate().executeTakeFirstOrThrow();
   const moveTo = o.status === 'done' && row.local_date !== o.date ? o.date : null;
   await trx
     .updateTable('steps')

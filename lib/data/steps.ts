@@ -159,7 +159,7 @@ export async function updateStepFields(trx: Transaction<Database>, stepId: strin
 
 /** A step's row, locked for the caller's transaction. */
 export async function lockStep(trx: Transaction<Database>, stepId: string) {
-  return trx.selectFrom('steps').selectAll().where('id', '=', stepId).forUpdate().executeTakeFirst();
+  return trx.selectFrom('steps').selectAll().where('id', '=', stepId).forNoKeyUpdate().executeTakeFirst();
 }
 
 /** Puts a step on a person's chosen day and pins it there, keeping the move as history. */

@@ -146,6 +146,10 @@ describe('two workers at once', () => {
     const { rows } = await expectEachDeliveredOnce();
     // The invitation went to the bare address, once.
     expect((await fakes.inbox()).filter((m) => m.to.includes(INVITEE)).map((m) => m.subject)).toEqual([`Ada Owner invited you to ${club.property.name} on Sowcast`]);
+    // The acceptance link is a bearer secret: once sent, the stored row no longer holds it.
+    const sentInvitation = rows.find((r) => r.kind === 'invitation');
+    expect(sentInvitation?.sent_at).toBeTruthy();
+    expect(JSON.stringify(sentInvitation?.message)).not.toContain('/invitations/abc');
     expect(rows.filter((r) => r.kind === 'kill-wait-over').length).toBe(expected * 2);
     // Each row was claimed once — by one of the two workers — and never needed a second attempt.
     for (const r of rows.filter((x) => x.kind === 'kill-wait-over')) {
