@@ -263,6 +263,8 @@ export interface ObservationsTable {
   weed_pressure: WeedPressure;
   verdict: StandVerdict;
   notes: string | null;
+  /** The planting made when a manager accepted the reseeding this check proposed. */
+  reseed_planting_id: ColumnType<string | null, string | null | undefined, string | null>;
   created_at: CreatedAt;
 }
 

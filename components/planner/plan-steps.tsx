@@ -168,6 +168,7 @@ export function PlanSteps({
                     <History className="size-4" aria-hidden="true" />
                     Open the step and its history of moves
                   </Link>
+                  {step.kind === 'check-germination' && canWork ? <Link href={`/plots/${plotId}/check?step=${step.id}`} className="ml-4 inline-flex min-h-10 items-center text-sm font-medium text-rain hover:underline">Record the germination check</Link> : null}
                   <StepControls step={step} plotId={plotId} members={members} canManage={canManage} canWork={canWork} today={today} />
                 </div>
               ) : null}

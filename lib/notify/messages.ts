@@ -60,6 +60,9 @@ function base(links: LinkBase): string {
 export const stepUrl = (links: LinkBase, stepId: string) => `${base(links)}/steps/${encodeURIComponent(stepId)}`;
 export const plotUrl = (links: LinkBase, plotId: string) => `${base(links)}/plots/${encodeURIComponent(plotId)}`;
 export const settingsUrl = (links: LinkBase) => `${base(links)}/settings`;
+/** The germination check form of a plot, for the check step the reminder is about. */
+export const checkUrl = (links: LinkBase, plotId: string, stepId?: string | null) =>
+  `${plotUrl(links, plotId)}/check${stepId ? `?step=${encodeURIComponent(stepId)}` : ''}`;
 
 // --- the two bodies -------------------------------------------------------------------------------------------
 
@@ -255,6 +258,8 @@ export function stepsMoved(m: StepsMovedInput): NotifyMessage {
 
 export interface CheckGerminationInput extends LinkBase {
   plotId: string;
+  /** The check-germination step; the link opens the check form for it. */
+  stepId?: string | null;
   plotName: string;
   propertyName: string;
   date: string; // local date of the check
@@ -262,7 +267,7 @@ export interface CheckGerminationInput extends LinkBase {
 }
 
 export function checkGermination(m: CheckGerminationInput): NotifyMessage {
-  const url = plotUrl(m, m.plotId);
+  const url = checkUrl(m, m.plotId, m.stepId);
   const blocks: Block[] = [
     {
       kind: 'para',
@@ -274,7 +279,7 @@ export function checkGermination(m: CheckGerminationInput): NotifyMessage {
       kind: 'para',
       text: 'Walk the plot, look close to the ground, and note how even the stand is and where weeds are coming through.',
     },
-    { kind: 'link', label: 'Open the plot', url },
+    { kind: 'link', label: 'Record the check', url },
   ];
   return build(m, `Check germination on ${m.plotName} today`, blocks, {
     title: `Check germination on ${m.plotName} today`,

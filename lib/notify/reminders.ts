@@ -211,7 +211,7 @@ function candidatesFor(step: ReminderStep, siblings: ReminderStep[], today: stri
       aboutDate: step.date,
       sendOn: step.date,
       build: (baseUrl) =>
-        checkGermination({ baseUrl, plotId: step.plotId, plotName: step.plotName, propertyName: step.propertyName, date: step.date, seededOn }),
+        checkGermination({ baseUrl, plotId: step.plotId, stepId: step.stepId, plotName: step.plotName, propertyName: step.propertyName, date: step.date, seededOn }),
     });
   } else if (dueReminders) {
     out.push({

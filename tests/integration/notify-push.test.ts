@@ -121,7 +121,7 @@ describe('sendPush to the local push service', () => {
     const [m] = messages;
     expect(m.subscriptionId).toBe(phone.id);
     expect(m.payload).toEqual(germination.push);
-    expect((m.payload as { url: string }).url).toBe('http://127.0.0.1:3999/plots/plot-north-corner');
+    expect((m.payload as { url: string }).url).toBe('http://127.0.0.1:3999/plots/plot-north-corner/check');
     expect(m.ttl).toBe(24 * 3600);
     expect(m.urgency).toBe('normal');
     // RFC 8030 §5.4: at most 32 characters of the URL-safe base64 alphabet.
@@ -153,7 +153,7 @@ describe('sendPush to the local push service', () => {
     const plain = decrypt(body, { version: 'aes128gcm', privateKey: device, authSecret: keys.auth });
     const payload = JSON.parse(plain.toString('utf8'));
     expect(payload).toEqual(germination.push);
-    expect(payload.url).toBe('http://127.0.0.1:3999/plots/plot-north-corner');
+    expect(payload.url).toBe('http://127.0.0.1:3999/plots/plot-north-corner/check');
 
     // The wrong device cannot read it.
     const other = createECDH('prime256v1');

@@ -192,7 +192,7 @@ describe('check germination, pushed to the phone', () => {
     const tag = `germination:${plot.id}`;
     const push = await waitFor('the germination push', async () => (await fakes.pushes()).find((m) => (m.payload as { tag?: string }).tag === tag));
     const payload = await decryptPush(push.subscriptionId, push.rawBody);
-    expect(payload).toMatchObject({ title: 'Check germination on North corner today', url: `${BASE}/plots/${plot.id}` });
+    expect(payload).toMatchObject({ title: 'Check germination on North corner today', url: `${BASE}/plots/${plot.id}/check?step=${check.id}` });
     expect(push.subscriptionId).toBe(ada.deviceId);
     const mail = await waitFor('the germination e-mail', async () => (await fakes.inbox()).find((m) => m.subject === 'Check germination on North corner today'));
     expect(mail.text).toContain(`${BASE}/settings`);

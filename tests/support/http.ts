@@ -34,6 +34,8 @@ export interface RequestOptions {
   json?: unknown;
   /** Sent as is (for non-JSON bodies). */
   raw?: string;
+  /** Sent as these exact bytes (binary uploads, which a string would re-encode). */
+  bytes?: Uint8Array;
   contentType?: string;
   headers?: Record<string, string>;
 }
@@ -104,13 +106,16 @@ export class Client {
   async request<T = any>(method: string, path: string, options: RequestOptions = {}): Promise<ApiResponse<T>> {
     const headers: Record<string, string> = { ...(this.address ? { 'x-forwarded-for': this.address } : {}), ...options.headers };
     if (this.jar.size) headers.cookie = [...this.jar].map(([k, v]) => `${k}=${v}`).join('; ');
-    let body: string | undefined;
+    let body: string | Uint8Array<ArrayBuffer> | undefined;
     if (options.json !== undefined) {
       body = JSON.stringify(options.json);
       headers['content-type'] = 'application/json';
     } else if (options.raw !== undefined) {
       body = options.raw;
       headers['content-type'] = options.contentType ?? 'text/plain';
+    } else if (options.bytes !== undefined) {
+      body = new Uint8Array(options.bytes);
+      headers['content-type'] = options.contentType ?? 'application/octet-stream';
     }
     const response = await fetch(`${baseUrl()}${path}`, { method, headers, body, redirect: 'manual' });
     const setCookies = this.keep(response);

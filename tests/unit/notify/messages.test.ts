@@ -144,18 +144,19 @@ describe('check germination', () => {
   const m = checkGermination({
     baseUrl,
     plotId: 'plot-7',
+    stepId: 'step-3',
     plotName: 'North corner',
     propertyName: 'Hollow Oak Club',
     date: '2027-09-24',
     seededOn: '2027-09-13',
   });
 
-  it('asks for the check today and opens the plot', () => {
+  it('asks for the check today and opens the check form for that step', () => {
     expect(m.subject).toBe('Check germination on North corner today');
     expect(m.push.title).toBe('Check germination on North corner today');
-    expect(m.push.url).toBe('https://sowcast.example.test/plots/plot-7');
+    expect(m.push.url).toBe('https://sowcast.example.test/plots/plot-7/check?step=step-3');
     expect(m.text).toContain('North corner (Hollow Oak Club) was seeded on Mon 13 Sep. Today, Fri 24 Sep, is the day to see what came up.');
-    expect(m.text).toContain('Open the plot: https://sowcast.example.test/plots/plot-7');
+    expect(m.text).toContain('Record the check: https://sowcast.example.test/plots/plot-7/check?step=step-3');
     expectSettingsLink(m);
   });
 });
@@ -272,7 +273,7 @@ describe('names people type', () => {
   });
 
   it('are percent-encoded in links', () => {
-    const m = checkGermination({ baseUrl, plotId: 'a/b?c', plotName: 'N', propertyName: 'C', date: '2027-09-14' });
-    expect(m.push.url).toBe('https://sowcast.example.test/plots/a%2Fb%3Fc');
+    const m = checkGermination({ baseUrl, plotId: 'a/b?c', stepId: 'x&y=z', plotName: 'N', propertyName: 'C', date: '2027-09-14' });
+    expect(m.push.url).toBe('https://sowcast.example.test/plots/a%2Fb%3Fc/check?step=x%26y%3Dz');
   });
 });

@@ -199,13 +199,13 @@ describe('which reminders are due', () => {
     expect(at('2027-09-20T12:00:00Z', [spray, killWait, { ...seed, status: 'done', doneOn: '2027-09-20' }])).toEqual([]);
   });
 
-  it('check germination goes on its day, with the plot link for the tap', () => {
+  it('check germination goes on its day, with the check form link for the tap', () => {
     const check = step('4', { key: 'check-germination', kind: 'check-germination', title: 'Check germination', date: '2027-09-30' });
     const seeded = { ...seed, status: 'done' as const, doneOn: '2027-09-20' };
     const rows = at('2027-09-30T12:00:00Z', [spray, seeded, check]).filter((r) => r.kind === 'check-germination');
     expect(rows.length).toBe(4);
     const push = rows.find((r) => r.channel === 'push')!.message as { push: { url: string; title: string } };
-    expect(push.push.url).toBe(`${BASE}/plots/${check.plotId}`);
+    expect(push.push.url).toBe(`${BASE}/plots/${check.plotId}/check?step=${check.stepId}`);
     expect(push.push.title).toBe('Check germination on Creekside strip today');
   });
 
