@@ -17,6 +17,7 @@ import { METHOD_LABELS, METHODS, plantingSchema, SEASONS, SOIL_TEXTURES } from '
 import { plannerKeys } from './keys';
 import { PlanSteps } from './plan-steps';
 import { SavedBlends } from './saved-blends';
+import { FillFromSoilTest } from '@/components/plots/soil-tests';
 import { SeedingCompare } from './seeding-compare';
 
 type Choice = 'usual' | 'yes' | 'no';
@@ -357,6 +358,20 @@ export function PlantingForm({
 
         <fieldset className="space-y-3">
           <legend className="mb-2 text-base font-semibold">Fertilizer and lime</legend>
+          <FillFromSoilTest
+            plotId={plotId}
+            onFill={({ limeTonsPerAcre, target }) => {
+              const set = { shouldDirty: true, shouldValidate: true };
+              if (target.n !== null || target.p2o5 !== null || target.k2o !== null) {
+                setValue('useFertilizer', true, set);
+                setValue('fertilizer.target', { n: target.n ?? blank, p2o5: target.p2o5 ?? blank, k2o: target.k2o ?? blank }, set);
+              }
+              if (limeTonsPerAcre !== null && limeTonsPerAcre > 0) {
+                setValue('useLime', true, set);
+                setValue('lime.tonsPerAcre', limeTonsPerAcre, set);
+              }
+            }}
+          />
           <Checkbox id="useFertilizer" label="Spread fertilizer" hint="From the soil test: the bag's grade and the pounds per acre of each nutrient it calls for." {...register('useFertilizer')} />
           {useFertilizer ? (
             <div className="space-y-3">

@@ -4,6 +4,8 @@ import { notFound } from 'next/navigation';
 import { ButtonLink } from '@/components/ui/button';
 import { PlantingForm } from '@/components/planner/planting-form';
 import { PlotPlantings } from '@/components/planner/plot-plantings';
+import { PlotBoundary } from '@/components/plots/plot-boundary';
+import { SoilTests } from '@/components/plots/soil-tests';
 import { RoleBadge } from '@/components/properties/role-badge';
 import { Card, CardHeader } from '@/components/ui/card';
 import { PageHeader } from '@/components/ui/page-header';
@@ -94,6 +96,9 @@ export default async function PlotPage({ params }: { params: Params }) {
           ) : null}
         </dl>
       </Card>
+
+      <PlotBoundary plotId={plotId} canManage={canManage} />
+      <SoilTests plotId={plotId} canManage={canManage} />
 
       <PlotWeatherChart plotId={plotId} />
 
