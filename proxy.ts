@@ -11,5 +11,5 @@ export function proxy(request: NextRequest) {
 }
 
 export const config = {
-  matcher: ['/properties/:path*', '/plots/:path*', '/settings/:path*'],
+  matcher: ['/properties/:path*', '/plots/:path*', '/settings/:path*', '/my-steps/:path*'],
 };

@@ -4,6 +4,7 @@ import { LogOut } from 'lucide-react';
 import { signOut } from 'next-auth/react';
 import { useState } from 'react';
 import { Button } from '@/components/ui/button';
+import { forgetOfflineCopy } from '@/lib/client/field-offline';
 
 export function SignOutButton() {
   const [pending, setPending] = useState(false);
@@ -14,7 +15,8 @@ export function SignOutButton() {
       pending={pending}
       onClick={() => {
         setPending(true);
-        void signOut({ callbackUrl: '/' });
+        // The phone's offline copy of My steps is this person's list: it goes with them.
+        void forgetOfflineCopy().finally(() => signOut({ callbackUrl: '/' }));
       }}
     >
       {pending ? null : <LogOut className="size-4" aria-hidden="true" />}

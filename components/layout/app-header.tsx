@@ -19,6 +19,9 @@ export function AppHeader({ userName }: { userName: string }) {
               <NavLink href="/dashboard">Today</NavLink>
             </li>
             <li>
+              <NavLink href="/my-steps">My steps</NavLink>
+            </li>
+            <li>
               <NavLink href="/calendar">Calendar</NavLink>
             </li>
             <li>

@@ -95,6 +95,10 @@ export async function listPlantingsForPlot(plotId: string) {
   return getDb().selectFrom('plantings').selectAll().where('plot_id', '=', plotId).orderBy('target_seed_date', 'desc').execute();
 }
 
+export async function getStepRow(stepId: string, db: Db = getDb()) {
+  return db.selectFrom('steps').selectAll().where('id', '=', stepId).executeTakeFirstOrThrow();
+}
+
 export async function getStepRows(plantingId: string, db: Db = getDb()) {
   return db.selectFrom('steps').selectAll().where('planting_id', '=', plantingId).orderBy('position').execute();
 }
@@ -223,7 +227,18 @@ export async function getStepWithPlace(stepId: string, db: Db = getDb()) {
  */
 export async function recordStepOutcome(
   trx: Transaction<Database>,
-  o: { stepId: string; status: 'done' | 'skipped'; date: string; userId: string; notes?: string | null; at: Date },
+  o: {
+    stepId: string;
+    status: 'done' | 'skipped';
+    date: string;
+    userId: string;
+    notes?: string | null;
+    at: Date;
+    /** When the work was really done (default `at`, the moment it is recorded). */
+    doneAt?: Date;
+    /** What was really done (e.g. the seed actually broadcast), kept as given; untouched when undefined. */
+    record?: unknown;
+  },
 ) {
   const row = await trx.selectFrom('steps').selectAll().where('id', '=', o.stepId).forNoKeyUpdate().executeTakeFirstOrThrow();
   const moveTo = o.status === 'done' && row.local_date !== o.date ? o.date : null;
@@ -232,9 +247,10 @@ export async function recordStepOutcome(
     .set({
       status: o.status,
       done_on: o.status === 'done' ? o.date : null,
-      done_at: o.at,
+      done_at: o.doneAt ?? o.at,
       done_by: o.userId,
       ...(o.notes !== undefined ? { notes: o.notes } : {}),
+      ...(o.record !== undefined ? { done_record: o.record === null ? null : JSON.stringify(o.record) } : {}),
       ...(moveTo ? { local_date: moveTo } : {}),
       updated_at: o.at,
     })

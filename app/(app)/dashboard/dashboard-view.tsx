@@ -42,6 +42,9 @@ export function DashboardView() {
     <div className="grid gap-5 lg:grid-cols-2">
       <Section title="Today" description="Steps given to you, and unassigned steps on properties you manage.">
         <StepList events={d.today} empty="Nothing to do today. Enjoy the quiet." />
+        <Link href="/my-steps" className="mt-3 inline-flex min-h-12 items-center gap-2 font-semibold text-rain underline-offset-2 hover:underline">
+          Open My steps — mark work done in the field, offline too <ArrowRight className="size-4" aria-hidden="true" />
+        </Link>
       </Section>
       <Section title="This week" description="The six days after today.">
         <StepList events={d.thisWeek} empty="No steps for you in the rest of the week." showDate />
