@@ -139,6 +139,7 @@ async function loadDemoLocked(db: Kysely<Database>, at: Date) {
     }
   }
   await loadDemoBlends(db, userIds);
+  await loadDemoExpenses(db, userIds, at);
   await loadDemoPlantings(db, userIds, at);
   return userIds;
 }
@@ -166,6 +167,53 @@ async function loadDemoBlends(db: Kysely<Database>, userIds: Record<string, stri
     await db
       .insertInto('blends')
       .values({ property_id: property.id, name: blend.name, parts: JSON.stringify(blend.parts), created_by: userIds.manager })
+      .execute();
+  }
+}
+
+// ——— the club's expenses ————————————————————————————————————————————————————————————————————
+// Invented bills for the lease, in cents; an empty split means everyone who shares the club's costs.
+const DEMO_EXPENSES = [
+  { plot: 'Creekside strip', category: 'seed', description: 'Clover and cereal rye seed, two bags', amount_cents: 14_250, labour_hours: null, paidBy: 'manager', split: [] },
+  { plot: null, category: 'herbicide', description: 'Glyphosate 41%, one gallon', amount_cents: 3_899, labour_hours: null, paidBy: 'owner', split: [] },
+  { plot: 'Old lane', category: 'lime', description: 'Pelletized lime, ten bags', amount_cents: 6_490, labour_hours: null, paidBy: 'member', split: ['owner', 'manager', 'member'] },
+  { plot: null, category: 'fuel', description: 'Tractor diesel', amount_cents: 2_735, labour_hours: null, paidBy: 'manager', split: ['manager', 'member'] },
+  { plot: 'Old lane', category: 'labour', description: 'Disking and rolling the seedbed', amount_cents: 0, labour_hours: 3.5, paidBy: 'member', split: [] },
+] as const;
+
+async function loadDemoExpenses(db: Kysely<Database>, userIds: Record<string, string>, at: Date) {
+  const property = await db
+    .selectFrom('properties')
+    .innerJoin('memberships', 'memberships.property_id', 'properties.id')
+    .select(['properties.id', 'properties.time_zone'])
+    .where('properties.name', '=', 'Foxglove Hollow Lease')
+    .where('memberships.user_id', '=', userIds.owner)
+    .executeTakeFirst();
+  if (!property) return;
+  const today = localDateOf(at, property.time_zone);
+  for (const [i, e] of DEMO_EXPENSES.entries()) {
+    const existing = await db.selectFrom('expenses').select('id').where('property_id', '=', property.id).where('description', '=', e.description).executeTakeFirst();
+    if (existing) continue;
+    const plot = e.plot
+      ? await db.selectFrom('plots').select('id').where('property_id', '=', property.id).where('name', '=', e.plot).executeTakeFirst()
+      : undefined;
+    const spentOn = addDays(today, -30 + i * 5);
+    await db
+      .insertInto('expenses')
+      .values({
+        property_id: property.id,
+        plot_id: plot?.id ?? null,
+        season: Number(spentOn.slice(5, 7)) <= 6 ? 'spring' : 'fall',
+        year: Number(spentOn.slice(0, 4)),
+        spent_on: spentOn,
+        category: e.category,
+        description: e.description,
+        amount_cents: e.amount_cents,
+        labour_hours: e.labour_hours,
+        paid_by: userIds[e.paidBy],
+        split_among: JSON.stringify(e.split.map((role) => userIds[role])),
+        created_by: userIds.manager,
+      })
       .execute();
   }
 }

@@ -18,7 +18,7 @@ import { plotSchema } from '@/lib/validations/plot';
 import { isKnownTimeZone, propertySchema } from '@/lib/validations/property';
 import { freshDatabase, type FreshDatabase } from '../support/db';
 
-const TABLES = ['users', 'properties', 'memberships', 'plots', 'plantings', 'steps', 'blends'] as const;
+const TABLES = ['users', 'properties', 'memberships', 'plots', 'plantings', 'steps', 'blends', 'expenses'] as const;
 
 async function counts(db: Kysely<Database>) {
   const out: Record<string, number> = {};

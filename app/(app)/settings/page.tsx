@@ -1,5 +1,6 @@
 import type { Metadata } from 'next';
 import { redirect } from 'next/navigation';
+import { CalendarFeeds } from '@/components/settings/calendar-feeds';
 import { NotificationSettingsForm } from '@/components/settings/notification-settings-form';
 import { PushDevices } from '@/components/settings/push-devices';
 import { PageHeader } from '@/components/ui/page-header';
@@ -20,6 +21,7 @@ export default async function SettingsPage() {
       <PageHeader title="Settings" description="What Sowcast tells you, where and when." />
       <NotificationSettingsForm initial={settings} email={user.email} zones={zones} />
       <PushDevices />
+      <CalendarFeeds />
     </div>
   );
 }

@@ -1,5 +1,5 @@
 import type { Metadata } from 'next';
-import { Pencil } from 'lucide-react';
+import { ClipboardList, Pencil, Receipt } from 'lucide-react';
 import { notFound } from 'next/navigation';
 import { InvitationsSection } from '@/components/members/invitations-section';
 import { MembersSection } from '@/components/members/members-section';
@@ -46,12 +46,24 @@ export default async function PropertyPage({ params }: { params: Params }) {
           </span>
         }
         actions={
-          canEdit ? (
-            <ButtonLink href={`/properties/${propertyId}/edit`} variant="secondary">
-              <Pencil className="size-4" aria-hidden="true" />
-              Edit property
+          <>
+            <ButtonLink href={`/properties/${propertyId}/records`} variant="secondary">
+              <ClipboardList className="size-4" aria-hidden="true" />
+              Records
             </ButtonLink>
-          ) : null
+            {canEdit ? (
+              <ButtonLink href={`/properties/${propertyId}/costs`} variant="secondary">
+                <Receipt className="size-4" aria-hidden="true" />
+                Costs
+              </ButtonLink>
+            ) : null}
+            {canEdit ? (
+              <ButtonLink href={`/properties/${propertyId}/edit`} variant="secondary">
+                <Pencil className="size-4" aria-hidden="true" />
+                Edit property
+              </ButtonLink>
+            ) : null}
+          </>
         }
       />
 
