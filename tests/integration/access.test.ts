@@ -10,7 +10,7 @@ import type { Kysely } from 'kysely';
 import type { Database } from '@/db/database';
 import {
   addMember, Client, createPlot, createProperty, invite, plotBody, propertyBody, signedInUser, uniqueEmail,
-  type ApiResponse, type TestUser,
+  type ApiResponse, type RequestOptions, type TestUser,
 } from '../support/http';
 import { countPlotsOf, testDb } from '../support/db';
 
@@ -44,6 +44,8 @@ interface Fixture {
 interface Target {
   path: string;
   body?: unknown;
+  /** Sent as is instead of a JSON body (a multipart upload). */
+  options?: RequestOptions;
   /** Anything the checks need to know about what the target set up. */
   context?: Record<string, string>;
 }
@@ -97,6 +99,28 @@ async function sprayStepOf(fx: Fixture, plotId: string) {
   return (await getStepRows(planting.id)).find((s) => s.kind === 'spray')!;
 }
 
+/** An application record body for a plot (lib/validations/application-record.ts). */
+const recordBody = (plotId: string, over: Record<string, unknown> = {}) => ({
+  kind: 'herbicide', plotId, appliedOn: '2026-05-04', appliedTime: '08:15', areaAcres: 0.5, productName: 'Glyphosate 41% (generic)',
+  rateValue: 48, rateUnit: 'fl oz/acre', totalProductValue: 24, totalProductUnit: 'fl oz', applicatorName: 'Access test', ...over,
+});
+
+/** A stored application record on a plot, written straight into the table. */
+async function recordOf(fx: Fixture, propertyId: string, plotId: string) {
+  return fx.db
+    .insertInto('application_records')
+    .values({
+      property_id: propertyId, plot_id: plotId, plot_name: 'Access plot', kind: 'herbicide', applied_at: new Date('2026-05-04T13:15:00Z'),
+      applied_on: '2026-05-04', time_zone: 'America/Chicago', area_acres: 0.5, product_name: 'Glyphosate 41% (generic)', rate_value: 48,
+      rate_unit: 'fl oz/acre', total_product_value: 24, total_product_unit: 'fl oz', applicator_name: 'Access test',
+    })
+    .returning('id')
+    .executeTakeFirstOrThrow();
+}
+
+const recordsOf = (fx: Fixture, propertyId: string) =>
+  fx.db.selectFrom('application_records').select('id').where('property_id', '=', propertyId).orderBy('id').execute();
+
 /** A property of A's owner with the same four roles (and spare as a member), for requests that change people. */
 async function propertyWithRoles(fx: Fixture) {
   const property = await createProperty(fx.people.owner.client);
@@ -107,6 +131,16 @@ async function propertyWithRoles(fx: Fixture) {
     addMember(fx.people.owner.client, property.id, fx.people.spare, 'member'),
   ]);
   return property;
+}
+
+/** A $12.34 whole-property expense on a property, paid by `paidBy`; its id. */
+async function expenseOf(fx: Fixture, propertyId: string, paidBy: string) {
+  const row = await fx.db
+    .insertInto('expenses')
+    .values({ property_id: propertyId, season: 'fall', year: 2027, spent_on: '2027-08-01', category: 'fuel', description: `Fuel ${randomUUID()}`, amount_cents: 1_234, paid_by: paidBy })
+    .returning('id')
+    .executeTakeFirstOrThrow();
+  return row.id;
 }
 
 const roleOf = async (fx: Fixture, propertyId: string, userId: string) =>
@@ -120,6 +154,76 @@ const roleOf = async (fx: Fixture, propertyId: string, userId: string) =>
   )?.role ?? null;
 
 const ROLE_OF_ACTOR: Partial<Record<Actor, string>> = { owner: 'owner', manager: 'manager', member: 'member', viewer: 'viewer' };
+
+/** A multipart/form-data body (RFC 7578) carrying a small JPEG made with sharp, as exact bytes. */
+async function multipartPhoto(): Promise<RequestOptions> {
+  const { default: sharp } = await import('sharp');
+  const jpeg = await sharp({ create: { width: 24, height: 16, channels: 3, background: '#3d7a3a' } }).jpeg().toBuffer();
+  const boundary = `----sowcast-${randomUUID()}`;
+  const head = Buffer.from(`--${boundary}\r\nContent-Disposition: form-data; name="file"; filename="spot.jpg"\r\nContent-Type: image/jpeg\r\n\r\n`);
+  const tail = Buffer.from(`\r\n--${boundary}--\r\n`);
+  return { bytes: new Uint8Array(Buffer.concat([head, jpeg, tail])), contentType: `multipart/form-data; boundary=${boundary}` };
+}
+
+/** A photo of plot A stored the way the upload route stores it (bytes through lib/storage, then the row). */
+async function storedPhotoOf(fx: Fixture) {
+  const { storage } = await import('@/lib/storage');
+  const { default: sharp } = await import('sharp');
+  const webp = new Uint8Array(await sharp({ create: { width: 8, height: 8, channels: 3, background: '#2d6a98' } }).webp().toBuffer());
+  const storageKey = await storage().put('photos', webp, 'image/webp');
+  const thumbKey = await storage().put('thumbs', webp, 'image/webp');
+  return fx.db
+    .insertInto('uploads')
+    .values({
+      property_id: fx.propertyA.id, plot_id: fx.plotA.id, kind: 'photo', filename: 'spot.webp', content_type: 'image/webp',
+      size_bytes: webp.byteLength, sha256: createHash('sha256').update(webp).digest('hex'), storage_key: storageKey, thumb_key: thumbKey,
+      width: 8, height: 8, uploaded_by: fx.people.owner.user.id,
+    })
+    .returningAll()
+    .executeTakeFirstOrThrow();
+}
+
+let cloverPlantingA: Promise<string> | null = null;
+/** One spray-and-seed white clover planting on plot A, made once, for the germination-check routes. */
+function cloverPlantingOf(fx: Fixture): Promise<string> {
+  cloverPlantingA ??= (async () => {
+    const { createPlanting } = await import('@/lib/data/plantings');
+    const { buildPlantingInput } = await import('@/lib/planning/input');
+    const { planPlanting } = await import('@/lib/schedule/plan');
+    const { plantingSchema } = await import('@/lib/validations/planting');
+    const form = plantingSchema.parse(PREVIEW_BODY);
+    const plot = await fx.db.selectFrom('plots').selectAll().where('id', '=', fx.plotA.id).executeTakeFirstOrThrow();
+    const property = await fx.db.selectFrom('properties').selectAll().where('id', '=', plot.property_id).executeTakeFirstOrThrow();
+    const plan = planPlanting(buildPlantingInput(property, plot, form), null, new Date());
+    return (await createPlanting({ plotId: fx.plotA.id, form, plan, createdBy: fx.people.owner.user.id })).id;
+  })();
+  return cloverPlantingA;
+}
+
+/** A poor-stand check of that planting, written straight into the table. */
+async function poorCheckOf(fx: Fixture, plantingId: string) {
+  return fx.db
+    .insertInto('observations')
+    .values({
+      planting_id: plantingId, plot_id: fx.plotA.id, observed_on: '2027-09-20', observed_at: new Date(), stand_rating: 1,
+      frame_counts: JSON.stringify([1, 2, 0]), frame_sq_ft: 1, plants_per_sq_ft: 1, weed_pressure: 'light', verdict: 'poor',
+    })
+    .returning('id')
+    .executeTakeFirstOrThrow();
+}
+
+const countOf = (fx: Fixture, table: 'uploads' | 'observations' | 'plantings', column: 'plot_id' | 'planting_id', id: string) =>
+  fx.db.selectFrom(table).select((eb) => eb.fn.countAll<string>().as('n')).where(column, '=', id).executeTakeFirst();
+
+// A 0.001° square at 45° N as GeoJSON (about 2.17 acres; see tests/unit/geo/boundary.test.ts).
+const SQUARE_GEOJSON = JSON.stringify({ type: 'Polygon', coordinates: [[[-100, 45], [-99.999, 45], [-99.999, 45.001], [-100, 45.001], [-100, 45]]] });
+
+/** A multipart/form-data body (RFC 7578) with one text file in the "file" field. */
+function multipartFile(filename: string, content: string): RequestOptions {
+  const boundary = `----access${randomUUID()}`;
+  const raw = `--${boundary}\r\nContent-Disposition: form-data; name="file"; filename="${filename}"\r\nContent-Type: application/octet-stream\r\n\r\n${content}\r\n--${boundary}--\r\n`;
+  return { raw, contentType: `multipart/form-data; boundary=${boundary}` };
+}
 
 const CASES: Case[] = [
   {
@@ -244,6 +348,78 @@ const CASES: Case[] = [
     check: async (_res, fx, _actor, t) => {
       expect(await fx.db.selectFrom('blends').select('id').where('id', '=', t.context!.blendId).executeTakeFirst()).toBeUndefined();
     },
+  },
+  {
+    method: 'GET',
+    route: '/api/properties/[propertyId]/records',
+    expect: READ,
+    target: async (fx) => {
+      await recordOf(fx, fx.propertyB.id, fx.plotB.id);
+      await recordOf(fx, fx.propertyA.id, fx.plotA.id);
+      return { path: `/api/properties/${fx.propertyA.id}/records` };
+    },
+    check: (res, fx) => {
+      expect(res.body.records.length).toBeGreaterThan(0);
+      for (const r of res.body.records) expect(r.propertyId).toBe(fx.propertyA.id);
+    },
+  },
+  {
+    method: 'POST',
+    route: '/api/properties/[propertyId]/records',
+    expect: memberWrite(201),
+    target: (fx) => ({ path: `/api/properties/${fx.propertyA.id}/records`, body: recordBody(fx.plotA.id) }),
+    snapshot: (fx) => recordsOf(fx, fx.propertyA.id),
+    check: (res, fx, actor) => {
+      expect(res.body.record).toMatchObject({ propertyId: fx.propertyA.id, plotId: fx.plotA.id });
+      expect(res.body.record.recordedBy.id).toBe(fx.people[actor as 'owner'].user.id);
+    },
+  },
+  {
+    method: 'GET',
+    route: '/api/properties/[propertyId]/records/export',
+    expect: READ,
+    target: async (fx) => {
+      await recordOf(fx, fx.propertyB.id, fx.plotB.id);
+      const row = await recordOf(fx, fx.propertyA.id, fx.plotA.id);
+      return { path: `/api/properties/${fx.propertyA.id}/records/export`, context: { recordId: row.id } };
+    },
+    check: (res, fx, _actor, t) => {
+      expect(res.headers.get('content-type')).toMatch(/^text\/csv/);
+      expect(res.headers.get('content-disposition')).toMatch(/^attachment; filename=/);
+      expect(res.text).toContain(t.context!.recordId);
+      expect(res.text).not.toContain(fx.propertyB.id);
+    },
+  },
+  {
+    method: 'GET',
+    route: '/api/records/[recordId]',
+    expect: READ,
+    target: async (fx) => {
+      const row = await recordOf(fx, fx.propertyA.id, fx.plotA.id);
+      return { path: `/api/records/${row.id}`, context: { recordId: row.id } };
+    },
+    check: (res, _fx, _actor, t) => expect(res.body.record.id).toBe(t.context!.recordId),
+  },
+  {
+    method: 'POST',
+    route: '/api/records/[recordId]/corrections',
+    expect: memberWrite(201),
+    target: async (fx) => {
+      const row = await recordOf(fx, fx.propertyA.id, fx.plotA.id);
+      return { path: `/api/records/${row.id}/corrections`, body: recordBody(fx.plotA.id, { correctionReason: 'Rate was 32' }), context: { recordId: row.id } };
+    },
+    snapshot: (fx) => recordsOf(fx, fx.propertyA.id),
+    check: (res, _fx, _actor, t) => expect(res.body.record.supersedesId).toBe(t.context!.recordId),
+  },
+  {
+    method: 'GET',
+    route: '/api/steps/[stepId]/record-draft',
+    expect: memberWrite(200),
+    target: async (fx) => {
+      const spray = await sprayStepOf(fx, fx.plotA.id);
+      return { path: `/api/steps/${spray.id}/record-draft`, context: { stepId: spray.id } };
+    },
+    check: (res, fx, _actor, t) => expect(res.body.draft).toMatchObject({ stepId: t.context!.stepId, plotId: fx.plotA.id, kind: 'herbicide' }),
   },
   {
     method: 'GET',
@@ -434,6 +610,53 @@ const CASES: Case[] = [
     },
   },
   {
+    // Plot boundary: anyone on the property reads the outline; managers upload and clear it (boundary-upload.test.ts).
+    method: 'GET',
+    route: '/api/plots/[plotId]/boundary',
+    expect: READ,
+    target: (fx) => ({ path: `/api/plots/${fx.plotA.id}/boundary` }),
+    check: (res) => expect(res.body).toHaveProperty('boundary'),
+  },
+  {
+    method: 'POST',
+    route: '/api/plots/[plotId]/boundary',
+    expect: managerWrite(201),
+    target: (fx) => ({ path: `/api/plots/${fx.plotA.id}/boundary`, options: multipartFile('square.geojson', SQUARE_GEOJSON) }),
+    snapshot: async (fx) => [
+      await fx.db.selectFrom('plots').select(['boundary', 'boundary_acres', 'boundary_upload_id']).where('id', '=', fx.plotA.id).executeTakeFirst(),
+      await fx.db.selectFrom('uploads').select('id').where('plot_id', '=', fx.plotA.id).where('kind', '=', 'boundary').execute(),
+    ],
+    check: (res) => expect(res.body.boundary.acres).toBeGreaterThan(2),
+  },
+  {
+    method: 'DELETE',
+    route: '/api/plots/[plotId]/boundary',
+    expect: managerWrite(204),
+    target: (fx) => ({ path: `/api/plots/${fx.plotA.id}/boundary` }),
+    snapshot: (fx) => fx.db.selectFrom('plots').select(['boundary', 'boundary_acres', 'boundary_upload_id']).where('id', '=', fx.plotA.id).executeTakeFirst(),
+    check: async (_res, fx) =>
+      expect((await fx.db.selectFrom('plots').select('boundary').where('id', '=', fx.plotA.id).executeTakeFirstOrThrow()).boundary).toBeNull(),
+  },
+  {
+    // Soil tests: read by everyone on the property, uploaded by managers (soil-tests.test.ts).
+    method: 'GET',
+    route: '/api/plots/[plotId]/soil-tests',
+    expect: READ,
+    target: (fx) => ({ path: `/api/plots/${fx.plotA.id}/soil-tests` }),
+    check: (res) => expect(Array.isArray(res.body.soilTests)).toBe(true),
+  },
+  {
+    method: 'POST',
+    route: '/api/plots/[plotId]/soil-tests',
+    expect: managerWrite(201),
+    target: (fx) => ({ path: `/api/plots/${fx.plotA.id}/soil-tests`, options: multipartFile('lab.csv', 'pH,P (ppm),K (ppm)\n6.1,25,130\n') }),
+    snapshot: async (fx) => [
+      await fx.db.selectFrom('soil_tests').select('id').where('plot_id', '=', fx.plotA.id).execute(),
+      await fx.db.selectFrom('uploads').select('id').where('plot_id', '=', fx.plotA.id).where('kind', '=', 'soil-test').execute(),
+    ],
+    check: (res) => expect(res.body.soilTest).toMatchObject({ ph: 6.1, pPpm: 25, kPpm: 130 }),
+  },
+  {
     // The plot's weather chart: read-only, for everyone who may see the plot.
     method: 'GET',
     route: '/api/plots/[plotId]/weather',
@@ -576,6 +799,24 @@ const CASES: Case[] = [
     },
   },
   {
+    // Everyone signed in gets their phone list; it holds only steps of their own properties where they may
+    // work — a viewer's list has none of A's unassigned steps (my-steps.test.ts).
+    method: 'GET',
+    route: '/api/my-steps',
+    expect: anySignedIn(200),
+    target: async (fx) => {
+      const spray = await sprayStepOf(fx, fx.plotA.id);
+      const tomorrow = new Intl.DateTimeFormat('en-CA', { timeZone: 'America/Chicago', year: 'numeric', month: '2-digit', day: '2-digit' }).format(Date.now() + 86_400_000);
+      await fx.db.updateTable('steps').set({ local_date: tomorrow, assignee_id: null }).where('id', '=', spray.id).execute();
+      return { path: '/api/my-steps', context: { stepId: spray.id } };
+    },
+    check: (res, fx, actor, t) => {
+      const ids = res.body.steps.map((s: { stepId: string }) => s.stepId);
+      expect(ids.includes(t.context!.stepId)).toBe(actor === 'owner' || actor === 'manager' || actor === 'member');
+      expect(res.text).not.toContain(fx.plotB.id);
+    },
+  },
+  {
     // Everyone signed in gets a calendar; it holds only the plots of their own properties (calendar.test.ts).
     method: 'GET',
     route: '/api/calendar',
@@ -650,6 +891,199 @@ const CASES: Case[] = [
     target: (fx) => ({ path: `/api/plots/${fx.plotA.id}/plan/compare`, body: { planting: PREVIEW_BODY, seedDates: ['2027-09-01', '2027-09-10'] } }),
     snapshot: (fx) => fx.db.selectFrom('plantings').select('id').where('plot_id', '=', fx.plotA.id).orderBy('id').execute(),
     check: (res) => expect(res.body.options.map((o: { seedDate: string }) => o.seedDate)).toEqual(['2027-09-01', '2027-09-10']),
+  },
+  {
+    // Money is the club's business: owners and managers only (expenses.test.ts has the totals and the split).
+    method: 'GET',
+    route: '/api/properties/[propertyId]/expenses',
+    expect: managerWrite(200),
+    target: async (fx) => {
+      await expenseOf(fx, fx.propertyB.id, fx.people.ownerB.user.id);
+      return { path: `/api/properties/${fx.propertyA.id}/expenses` };
+    },
+    check: (res, fx) => {
+      for (const e of res.body.expenses) expect(e.propertyId).toBe(fx.propertyA.id);
+      expect(res.body.sharers.map((s: { id: string }) => s.id)).not.toContain(fx.people.viewer.user.id);
+      expect(typeof res.body.summary.totalCents).toBe('number');
+    },
+  },
+  {
+    method: 'POST',
+    route: '/api/properties/[propertyId]/expenses',
+    expect: managerWrite(201),
+    target: (fx) => ({
+      path: `/api/properties/${fx.propertyA.id}/expenses`,
+      body: { plotId: fx.plotA.id, season: 'fall', year: 2027, spentOn: '2027-08-20', category: 'seed', description: `Seed ${randomUUID()}`, amount: '45.10', paidBy: fx.people.member.user.id },
+    }),
+    snapshot: (fx) => fx.db.selectFrom('expenses').select('id').where('property_id', '=', fx.propertyA.id).orderBy('id').execute(),
+    check: (res, fx) => expect(res.body.expense).toMatchObject({ propertyId: fx.propertyA.id, plotId: fx.plotA.id, amountCents: 4_510, paidBy: fx.people.member.user.id }),
+  },
+  {
+    method: 'DELETE',
+    route: '/api/properties/[propertyId]/expenses/[expenseId]',
+    expect: managerWrite(204),
+    target: async (fx) => {
+      const id = await expenseOf(fx, fx.propertyA.id, fx.people.owner.user.id);
+      return { path: `/api/properties/${fx.propertyA.id}/expenses/${id}`, context: { expenseId: id } };
+    },
+    snapshot: (fx, t) => fx.db.selectFrom('expenses').select('id').where('id', '=', t.context!.expenseId).executeTakeFirst(),
+    check: async (_res, fx, _actor, t) =>
+      expect(await fx.db.selectFrom('expenses').select('id').where('id', '=', t.context!.expenseId).executeTakeFirst()).toBeUndefined(),
+  },
+  {
+    method: 'GET',
+    route: '/api/properties/[propertyId]/expenses/export',
+    expect: managerWrite(200),
+    target: async (fx) => {
+      await expenseOf(fx, fx.propertyA.id, fx.people.owner.user.id);
+      return { path: `/api/properties/${fx.propertyA.id}/expenses/export` };
+    },
+    check: (res) => {
+      expect(res.headers.get('content-type')).toBe('text/csv; charset=utf-8');
+      expect(res.headers.get('content-disposition')).toMatch(/^attachment; filename="sowcast-expenses-[a-z0-9-]+\.csv"$/);
+      expect(res.text.split('\r\n')[0]).toBe('Date,Season,Year,Plot,Category,Description,Amount (USD),Labour hours,Paid by,Split among');
+    },
+  },
+  {
+    // A person's own calendar feeds; the list never carries a token or its hash (ical-feed.test.ts).
+    method: 'GET',
+    route: '/api/settings/calendar-feeds',
+    expect: anySignedIn(200),
+    target: () => ({ path: '/api/settings/calendar-feeds' }),
+    check: (res) => {
+      expect(Array.isArray(res.body.feeds)).toBe(true);
+      expect(res.text).not.toMatch(/[0-9a-f]{64}/);
+    },
+  },
+  {
+    method: 'POST',
+    route: '/api/settings/calendar-feeds',
+    expect: anySignedIn(201),
+    target: (_fx, actor) => ({ path: '/api/settings/calendar-feeds', body: { label: `Phone of ${actor} ${randomUUID()}` } }),
+    snapshot: (fx, t) => fx.db.selectFrom('calendar_feeds').select('id').where('label', '=', (t.body as { label: string }).label).execute(),
+    check: async (res, fx, actor) => {
+      expect(res.body.url).toMatch(/\/api\/calendar-feed\/[A-Za-z0-9_-]{43}$/);
+      const row = await fx.db.selectFrom('calendar_feeds').select('user_id').where('id', '=', res.body.feed.id).executeTakeFirstOrThrow();
+      expect(row.user_id).toBe(fx.people[actor as 'owner'].user.id);
+    },
+  },
+  {
+    // Only one's own feed: the signed-out request names spare's feed and must leave it working.
+    method: 'DELETE',
+    route: '/api/settings/calendar-feeds/[feedId]',
+    expect: anySignedIn(204),
+    target: async (fx, actor) => {
+      const holder = actor === 'signedOut' ? fx.people.spare : fx.people[actor];
+      const made = await holder.client.post('/api/settings/calendar-feeds', {});
+      if (made.status !== 201) throw new Error(`making a feed answered ${made.status}: ${made.text}`);
+      return { path: `/api/settings/calendar-feeds/${made.body.feed.id}`, context: { feedId: made.body.feed.id } };
+    },
+    snapshot: (fx, t) => fx.db.selectFrom('calendar_feeds').select('revoked_at').where('id', '=', t.context!.feedId).executeTakeFirst(),
+    check: async (_res, fx, _actor, t) => {
+      const row = await fx.db.selectFrom('calendar_feeds').select('revoked_at').where('id', '=', t.context!.feedId).executeTakeFirstOrThrow();
+      expect(row.revoked_at).toBeInstanceOf(Date);
+    },
+  },
+  {
+    // Like an invitation link, the secret token is the credential: whoever holds it reads the owner's steps,
+    // signed in or not, and sees only that person's properties (no session is looked at).
+    method: 'GET',
+    route: '/api/calendar-feed/[token]',
+    expect: anyone(200),
+    target: async (fx) => {
+      await sprayStepOf(fx, fx.plotA.id);
+      const made = await fx.people.owner.client.post('/api/settings/calendar-feeds', {});
+      return { path: new URL(made.body.url).pathname };
+    },
+    check: (res, fx) => {
+      expect(res.headers.get('content-type')).toBe('text/calendar; charset=utf-8');
+      expect(res.text.startsWith('BEGIN:VCALENDAR\r\n')).toBe(true);
+      expect(res.text).toContain(fx.plotA.name);
+      expect(res.text).not.toContain(fx.plotB.name);
+    },
+  },
+  {
+    method: 'POST',
+    route: '/api/plots/[plotId]/photos',
+    expect: memberWrite(201),
+    target: async (fx) => ({ path: `/api/plots/${fx.plotA.id}/photos`, options: await multipartPhoto() }),
+    snapshot: (fx) => countOf(fx, 'uploads', 'plot_id', fx.plotA.id),
+    check: (res, fx) => expect(res.body.upload).toMatchObject({ kind: 'photo', plotId: fx.plotA.id, contentType: 'image/webp' }),
+  },
+  {
+    method: 'GET',
+    route: '/api/uploads/[uploadId]',
+    expect: READ,
+    target: async (fx) => ({ path: `/api/uploads/${(await storedPhotoOf(fx)).id}` }),
+    check: (res) => {
+      expect(res.headers.get('content-type')).toBe('image/webp');
+      expect(res.headers.get('x-content-type-options')).toBe('nosniff');
+    },
+  },
+  {
+    method: 'DELETE',
+    route: '/api/uploads/[uploadId]',
+    expect: managerWrite(204),
+    target: async (fx) => {
+      const row = await storedPhotoOf(fx);
+      return { path: `/api/uploads/${row.id}`, context: { uploadId: row.id } };
+    },
+    snapshot: (fx, t) => fx.db.selectFrom('uploads').select('id').where('id', '=', t.context!.uploadId).executeTakeFirst(),
+    check: async (_res, fx, _actor, t) => {
+      expect(await fx.db.selectFrom('uploads').select('id').where('id', '=', t.context!.uploadId).executeTakeFirst()).toBeUndefined();
+    },
+  },
+  {
+    method: 'GET',
+    route: '/api/uploads/[uploadId]/thumb',
+    expect: READ,
+    target: async (fx) => ({ path: `/api/uploads/${(await storedPhotoOf(fx)).id}/thumb` }),
+    check: (res) => expect(res.headers.get('cache-control')).toMatch(/^private/),
+  },
+  {
+    method: 'GET',
+    route: '/api/plantings/[plantingId]/observations',
+    expect: READ,
+    target: async (fx) => ({ path: `/api/plantings/${await cloverPlantingOf(fx)}/observations` }),
+    check: (res) => expect(Array.isArray(res.body.observations)).toBe(true),
+  },
+  {
+    method: 'POST',
+    route: '/api/plantings/[plantingId]/observations',
+    expect: memberWrite(201),
+    target: async (fx) => {
+      const plantingId = await cloverPlantingOf(fx);
+      return { path: `/api/plantings/${plantingId}/observations`, body: { standRating: 4, frameCounts: [40, 38], frameSqFt: 1, weedPressure: 'none' }, context: { plantingId } };
+    },
+    snapshot: (fx, t) => countOf(fx, 'observations', 'planting_id', t.context!.plantingId),
+    check: (res) => expect(res.body.stand.verdict).toBe('good'),
+  },
+  {
+    method: 'POST',
+    route: '/api/plantings/[plantingId]/reseed/preview',
+    expect: memberWrite(200),
+    target: async (fx) => {
+      const plantingId = await cloverPlantingOf(fx);
+      const check = await poorCheckOf(fx, plantingId);
+      return { path: `/api/plantings/${plantingId}/reseed/preview`, body: { observationId: check.id }, context: { plantingId } };
+    },
+    snapshot: (fx) => countOf(fx, 'plantings', 'plot_id', fx.plotA.id),
+    check: (res) => expect(res.body.reseed.plan.steps.some((s: { kind: string; status: string }) => s.kind === 'seed' && s.status === 'planned')).toBe(true),
+  },
+  {
+    method: 'POST',
+    route: '/api/plantings/[plantingId]/reseed',
+    expect: managerWrite(201),
+    target: async (fx) => {
+      const plantingId = await cloverPlantingOf(fx);
+      const check = await poorCheckOf(fx, plantingId);
+      return { path: `/api/plantings/${plantingId}/reseed`, body: { observationId: check.id }, context: { observationId: check.id } };
+    },
+    snapshot: (fx) => countOf(fx, 'plantings', 'plot_id', fx.plotA.id),
+    check: async (res, fx, _actor, t) => {
+      const row = await fx.db.selectFrom('observations').select('reseed_planting_id').where('id', '=', t.context!.observationId).executeTakeFirstOrThrow();
+      expect(row.reseed_planting_id).toBe(res.body.planting.id);
+    },
   },
 ];
 
@@ -730,7 +1164,7 @@ describe('role matrix: every route handler, every kind of person', () => {
         it(`${actor} → ${status}`, async () => {
           const target = await c.target(fx, actor);
           const before = c.snapshot ? await c.snapshot(fx, target) : undefined;
-          const res = await fx.clients[actor].request(c.method, target.path, target.body === undefined ? {} : { json: target.body });
+          const res = await fx.clients[actor].request(c.method, target.path, target.options ?? (target.body === undefined ? {} : { json: target.body }));
           expect(res.status, res.text).toBe(status);
           if (status >= 400) {
             expect(typeof res.body.error).toBe('string');
