@@ -117,6 +117,7 @@ describe('application records', () => {
     await page.getByLabel('Unit', { exact: true }).selectOption('lb');
     await page.getByRole('button', { name: 'Save the record' }).click();
     await page.waitForURL(/\/records\?saved=/);
+    await table.waitFor();
     await expect.poll(() => rows.count()).toBeGreaterThan(1);
 
     const productHeader = page.locator('th').filter({ hasText: 'Product' }).getByRole('button');
