@@ -11,9 +11,10 @@ import { errorText } from '../log';
 import { QUEUES, type SendJob } from '../queues';
 
 /**
- * The row as this job may act on it, or why not. The queue runs at most one job per notification at a time
- * ('stately', singleton key = the row's id), so a row already sent is the only repeat to guard against. A row
- * whose claim was released (a failed try waiting out its backoff) waits for its next claim and a fresh job.
+ * The row as this job may act on it, or why not. The queue runs at most one job per claim at a time ('stately',
+ * singleton key = row id and attempt). A row whose claim was released (a failed try waiting out its backoff)
+ * waits for its next claim and a fresh job; a job whose claim another worker took over (its own worker died or
+ * stalled past the claim's lease) leaves the row to the job of the newer claim.
  */
 export async function claimedRow(job: { data: SendJob }) {
   const row = await getNotification(job.data.notificationId);
@@ -21,6 +22,7 @@ export async function claimedRow(job: { data: SendJob }) {
   if (row.sent_at) return { skip: 'already sent' as const };
   if (row.failed_at) return { skip: 'closed' as const };
   if (!row.claimed_at) return { skip: 'not claimed (waiting for a retry)' as const };
+  if (row.attempts !== job.data.attempt) return { skip: 'superseded by a later claim' as const };
   return { row };
 }
 

@@ -12,6 +12,9 @@ import { gridCellKey } from '@/lib/weather/grid';
 import type { JobContext } from '../context';
 import { forecastRefreshJob, QUEUES, type SendJob } from '../queues';
 
+/** How long the job of a second or later claim waits before it starts (see the loop below). */
+const LATER_CLAIM_DELAY_SECONDS = 5;
+
 /** Rows handed out per run (SOWCAST_CLAIM_BATCH); the rest wait for the next run. */
 export function claimBatch(env: NodeJS.ProcessEnv = process.env): number {
   const value = Number(env.SOWCAST_CLAIM_BATCH);
@@ -30,9 +33,14 @@ export async function runReminders(ctx: JobContext, job: { id: string }) {
   for (const row of claimed) {
     const data: SendJob = { notificationId: row.id, claimedBy: ctx.workerId, attempt: row.attempts };
     const queue = row.channel === 'email' ? QUEUES.emailSend : QUEUES.pushSend;
-    // singletonKey: at most one job per notification waits and one runs. null here means one is already waiting
-    // (the row's earlier claim went stale); that job sends it.
-    if (await ctx.boss.send(queue, data, { singletonKey: row.id })) queued++;
+    // singletonKey: at most one job per claim of a row waits and one runs. The key names the claim, not only the
+    // row: a claim taken over from a worker that died must not wait behind the job pg-boss still counts as
+    // running inside the dead process (until its expiry) — the 'stately' queue would not start it meanwhile.
+    // The older job, when it runs at last, finds its claim superseded and does nothing (claimedRow). A later
+    // claim also starts a few seconds late, so a send still in flight under the old claim (a live worker whose
+    // lease ran out mid-send) marks the row sent first and the new job finds it done.
+    const later = row.attempts > 1 ? { startAfter: LATER_CLAIM_DELAY_SECONDS } : {};
+    if (await ctx.boss.send(queue, data, { singletonKey: `${row.id}:${row.attempts}`, ...later })) queued++;
   }
   const forecastsAsked = await askForMissingForecasts(ctx, at);
   ctx.log(created || claimed.length || forecastsAsked ? 'info' : 'debug', 'reminders run', {
