@@ -81,11 +81,21 @@ async function main() {
   }
 
   const work = { pollingIntervalSeconds };
+  // pg-boss waits a polling interval after every fetch, even a full one: 4 replans per 2 s would cap a worker
+  // at 2 plantings a second (a 1,000-property refresh then takes 25 minutes; see `npm run bench -- worker`).
+  // When a batch came back full there is probably more waiting, so the worker is told to fetch again now.
+  const drain = async <T>(queue: QueueName, batchSize: number, handler: (jobs: PgBoss.Job<T>[]) => Promise<void>) => {
+    let id: string | null = null;
+    id = await boss.work<T>(queue, { ...work, batchSize }, async (jobs) => {
+      await handler(jobs);
+      if (jobs.length >= batchSize && id) boss.notifyWorker(id);
+    });
+  };
   await boss.work(QUEUES.forecastRefresh, { ...work, batchSize: 1 }, each(boss, QUEUES.forecastRefresh, refreshForecasts));
-  await boss.work(QUEUES.replan, { ...work, batchSize: 4 }, each(boss, QUEUES.replan, replanPlanting));
+  await drain(QUEUES.replan, 4, each(boss, QUEUES.replan, replanPlanting));
   await boss.work(QUEUES.remindersDue, { ...work, batchSize: 1 }, each(boss, QUEUES.remindersDue, runReminders));
-  await boss.work(QUEUES.emailSend, { ...work, batchSize: 10 }, each(boss, QUEUES.emailSend, sendEmailNotification));
-  await boss.work(QUEUES.pushSend, { ...work, batchSize: 10 }, each(boss, QUEUES.pushSend, sendPushNotification));
+  await drain(QUEUES.emailSend, 10, each(boss, QUEUES.emailSend, sendEmailNotification));
+  await drain(QUEUES.pushSend, 10, each(boss, QUEUES.pushSend, sendPushNotification));
   await boss.work(QUEUES.deadLetter, { ...work, batchSize: 10 }, async (jobs) => {
     for (const job of jobs) log('error', 'job gave up after its retries', { queue: QUEUES.deadLetter, jobId: job.id, data: job.data });
   });
