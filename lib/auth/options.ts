@@ -24,7 +24,9 @@ export const authOptions: NextAuthOptions = {
   secret: process.env.NEXTAUTH_SECRET,
   session: { strategy: 'jwt', maxAge: 30 * 24 * 60 * 60 },
   pages: { signIn: '/sign-in' },
-  useSecureCookies: secureCookies,
+  // Secure when the configured address is https; otherwise left to next-auth, which then judges by the
+  // address it is reached at, so an https deployment without NEXTAUTH_URL still gets Secure cookies.
+  useSecureCookies: secureCookies || undefined,
   providers: [
     CredentialsProvider({
       name: 'E-mail and password',
