@@ -6,7 +6,7 @@ import { createECDH, createHash, randomBytes, randomUUID } from 'node:crypto';
 import { readdirSync, readFileSync } from 'node:fs';
 import path from 'node:path';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import type { Kysely } from 'kysely';
+import { sql, type Kysely } from 'kysely';
 import type { Database } from '@/db/database';
 import {
   addMember, Client, createPlot, createProperty, invite, plotBody, propertyBody, signedInUser, uniqueEmail,
@@ -39,6 +39,8 @@ interface Fixture {
   plotB: { id: string; name: string };
   /** A planted step on B's plot. */
   stepB: { id: string };
+  /** Ids made by a describe block's own setup. */
+  context: Record<string, string>;
 }
 
 interface Target {
@@ -1121,6 +1123,7 @@ beforeAll(async () => {
     propertyB,
     plotB,
     stepB: { id: '' },
+    context: {},
   };
   fx.stepB = { id: (await sprayStepOf(fx, plotB.id)).id };
 });
@@ -1423,4 +1426,263 @@ describe('invitations', () => {
     expect((await fx.clients.manager.post(`/api/invitations/${token}/accept`)).status).toBe(200);
     expect(await roleOf(fx, fx.propertyA.id, fx.people.manager.user.id)).toBe('manager');
   });
+});
+
+// ---- server actions ------------------------------------------------------------------------------------------
+
+// Server actions are reachable by POST from any page, so they are held to the same matrix. Sowcast has none
+// today (every form posts to a route handler above); the scan below still looks, and fails when one appears
+// without an entry here. An entry names the file and export ('app/x/actions.ts#saveThing').
+const SERVER_ACTION_CASES: Record<string, Expected> = {};
+
+/** Files whose first statement is 'use server', and functions whose body starts with it (React's directive). */
+function serverActions(): string[] {
+  const root = path.resolve(__dirname, '../..');
+  const found: string[] = [];
+  for (const dir of ['app', 'components', 'lib']) {
+    for (const entry of readdirSync(path.join(root, dir), { recursive: true, encoding: 'utf8' })) {
+      if (!/\.(ts|tsx|js|jsx|mjs)$/.test(entry)) continue;
+      const file = `${dir}/${entry.split(path.sep).join('/')}`;
+      const source = readFileSync(path.join(root, file), 'utf8');
+      if (!/['"]use server['"]/.test(source)) continue;
+      // Comments and leading whitespace aside, the directive is the file's first statement.
+      const body = source.replace(/^(\s|\/\/[^\n]*\n|\/\*[\s\S]*?\*\/)*/, '');
+      if (/^['"]use server['"]/.test(body)) {
+        const names = [...source.matchAll(/export\s+(?:async\s+)?(?:function|const)\s+(\w+)/g)].map((m) => m[1]);
+        for (const name of names.length ? names : ['(no named export)']) found.push(`${file}#${name}`);
+      }
+      for (const m of source.matchAll(/(?:function\s+(\w+)|(?:const|let)\s+(\w+)\s*=\s*async)[^{]*\{\s*['"]use server['"]/g)) {
+        found.push(`${file}#${m[1] ?? m[2]}`);
+      }
+      if (!found.some((f) => f.startsWith(`${file}#`))) found.push(`${file}#(unrecognised 'use server')`);
+    }
+  }
+  return found.sort();
+}
+
+it('the matrix covers every server action under app/, components/ and lib/ (none today)', () => {
+  const actions = serverActions();
+  expect(actions).toEqual(Object.keys(SERVER_ACTION_CASES).sort());
+  // The scan itself must work: it recognises both forms of the directive in a sample.
+  expect(/['"]use server['"]/.test(`'use server';\nexport async function save() {}`)).toBe(true);
+});
+
+// ---- every id-taking route, with ids of another property ---------------------------------------------------
+
+interface Foreign {
+  blendId: string;
+  recordId: string;
+  expenseId: string;
+  uploadId: string;
+  plantingId: string;
+  observationId: string;
+  invitationId: string;
+  feedId: string;
+}
+
+type CrossRequest = { path: string; body?: unknown; options?: RequestOptions };
+
+const recordBodyB = (f: Fixture) => recordBody(f.plotB.id);
+/**
+ * For each route with an id in its path: the request with B's ids, sent by each of A's people (who belong
+ * to none of B). Nested routes also get A's property with B's child id, sent by A's owner: the child must be
+ * looked up within the property named in the path, not anywhere.
+ */
+const CROSS: Record<string, { b: (f: Fixture, x: Foreign) => CrossRequest; mixed?: (f: Fixture, x: Foreign) => CrossRequest }> = {
+  'GET /api/properties/[propertyId]': { b: (f) => ({ path: `/api/properties/${f.propertyB.id}` }) },
+  'PATCH /api/properties/[propertyId]': { b: (f) => ({ path: `/api/properties/${f.propertyB.id}`, body: { name: 'Taken over' } }) },
+  'DELETE /api/properties/[propertyId]': { b: (f) => ({ path: `/api/properties/${f.propertyB.id}` }) },
+  'GET /api/properties/[propertyId]/plots': { b: (f) => ({ path: `/api/properties/${f.propertyB.id}/plots` }) },
+  'POST /api/properties/[propertyId]/plots': { b: (f) => ({ path: `/api/properties/${f.propertyB.id}/plots`, body: plotBody() }) },
+  'GET /api/properties/[propertyId]/blends': { b: (f) => ({ path: `/api/properties/${f.propertyB.id}/blends` }) },
+  'POST /api/properties/[propertyId]/blends': {
+    b: (f) => ({ path: `/api/properties/${f.propertyB.id}/blends`, body: { name: 'Not yours', parts: [{ speciesId: 'white-clover', share: 1 }] } }),
+  },
+  'DELETE /api/properties/[propertyId]/blends/[blendId]': {
+    b: (f, x) => ({ path: `/api/properties/${f.propertyB.id}/blends/${x.blendId}` }),
+    mixed: (f, x) => ({ path: `/api/properties/${f.propertyA.id}/blends/${x.blendId}` }),
+  },
+  'GET /api/properties/[propertyId]/records': { b: (f) => ({ path: `/api/properties/${f.propertyB.id}/records` }) },
+  'POST /api/properties/[propertyId]/records': {
+    b: (f) => ({ path: `/api/properties/${f.propertyB.id}/records`, body: recordBodyB(f) }),
+    // A's own property, naming B's plot in the body.
+    mixed: (f) => ({ path: `/api/properties/${f.propertyA.id}/records`, body: recordBodyB(f) }),
+  },
+  'GET /api/properties/[propertyId]/records/export': { b: (f) => ({ path: `/api/properties/${f.propertyB.id}/records/export` }) },
+  'GET /api/records/[recordId]': { b: (_f, x) => ({ path: `/api/records/${x.recordId}` }) },
+  'POST /api/records/[recordId]/corrections': {
+    b: (f, x) => ({ path: `/api/records/${x.recordId}/corrections`, body: { ...recordBodyB(f), correctionReason: 'Not yours' } }),
+  },
+  'GET /api/steps/[stepId]/record-draft': { b: (f) => ({ path: `/api/steps/${f.stepB.id}/record-draft` }) },
+  'GET /api/plots/[plotId]': { b: (f) => ({ path: `/api/plots/${f.plotB.id}` }) },
+  'PATCH /api/plots/[plotId]': { b: (f) => ({ path: `/api/plots/${f.plotB.id}`, body: { notes: 'not yours' } }) },
+  'DELETE /api/plots/[plotId]': { b: (f) => ({ path: `/api/plots/${f.plotB.id}` }) },
+  'POST /api/plots/[plotId]/plan/preview': { b: (f) => ({ path: `/api/plots/${f.plotB.id}/plan/preview`, body: PREVIEW_BODY }) },
+  'POST /api/plots/[plotId]/plan/compare': {
+    b: (f) => ({ path: `/api/plots/${f.plotB.id}/plan/compare`, body: { planting: PREVIEW_BODY, seedDates: ['2027-09-01', '2027-09-10'] } }),
+  },
+  'POST /api/steps/[stepId]/complete': { b: (f) => ({ path: `/api/steps/${f.stepB.id}/complete`, body: { status: 'done' } }) },
+  'GET /api/properties/[propertyId]/members': { b: (f) => ({ path: `/api/properties/${f.propertyB.id}/members` }) },
+  'PATCH /api/properties/[propertyId]/members/[userId]': {
+    b: (f) => ({ path: `/api/properties/${f.propertyB.id}/members/${f.people.ownerB.user.id}`, body: { role: 'viewer' } }),
+    mixed: (f) => ({ path: `/api/properties/${f.propertyA.id}/members/${f.people.ownerB.user.id}`, body: { role: 'viewer' } }),
+  },
+  'DELETE /api/properties/[propertyId]/members/[userId]': {
+    b: (f) => ({ path: `/api/properties/${f.propertyB.id}/members/${f.people.ownerB.user.id}` }),
+    mixed: (f) => ({ path: `/api/properties/${f.propertyA.id}/members/${f.people.ownerB.user.id}` }),
+  },
+  'GET /api/properties/[propertyId]/invitations': { b: (f) => ({ path: `/api/properties/${f.propertyB.id}/invitations` }) },
+  'POST /api/properties/[propertyId]/invitations': {
+    b: (f) => ({ path: `/api/properties/${f.propertyB.id}/invitations`, body: { email: uniqueEmail('cross'), role: 'owner' } }),
+  },
+  'DELETE /api/properties/[propertyId]/invitations/[invitationId]': {
+    b: (f, x) => ({ path: `/api/properties/${f.propertyB.id}/invitations/${x.invitationId}` }),
+    mixed: (f, x) => ({ path: `/api/properties/${f.propertyA.id}/invitations/${x.invitationId}` }),
+  },
+  'GET /api/properties/[propertyId]/weather': { b: (f) => ({ path: `/api/properties/${f.propertyB.id}/weather` }) },
+  'GET /api/plots/[plotId]/boundary': { b: (f) => ({ path: `/api/plots/${f.plotB.id}/boundary` }) },
+  'POST /api/plots/[plotId]/boundary': { b: (f) => ({ path: `/api/plots/${f.plotB.id}/boundary`, options: multipartFile('field.geojson', SQUARE_GEOJSON) }) },
+  'DELETE /api/plots/[plotId]/boundary': { b: (f) => ({ path: `/api/plots/${f.plotB.id}/boundary` }) },
+  'GET /api/plots/[plotId]/soil-tests': { b: (f) => ({ path: `/api/plots/${f.plotB.id}/soil-tests` }) },
+  'POST /api/plots/[plotId]/soil-tests': {
+    b: (f) => ({ path: `/api/plots/${f.plotB.id}/soil-tests`, options: multipartFile('lab.csv', 'pH,P (ppm),K (ppm)\n6.1,22,140\n') }),
+  },
+  'GET /api/plots/[plotId]/weather': { b: (f) => ({ path: `/api/plots/${f.plotB.id}/weather` }) },
+  'GET /api/plots/[plotId]/plantings': { b: (f) => ({ path: `/api/plots/${f.plotB.id}/plantings` }) },
+  'POST /api/plots/[plotId]/plantings': { b: (f) => ({ path: `/api/plots/${f.plotB.id}/plantings`, body: PREVIEW_BODY }) },
+  'GET /api/plantings/[plantingId]': { b: (_f, x) => ({ path: `/api/plantings/${x.plantingId}` }) },
+  'DELETE /api/plantings/[plantingId]': { b: (_f, x) => ({ path: `/api/plantings/${x.plantingId}` }) },
+  'GET /api/steps/[stepId]': { b: (f) => ({ path: `/api/steps/${f.stepB.id}` }) },
+  'PATCH /api/steps/[stepId]': { b: (f) => ({ path: `/api/steps/${f.stepB.id}`, body: { pinned: true } }) },
+  'POST /api/steps/[stepId]/move': { b: (f) => ({ path: `/api/steps/${f.stepB.id}/move`, body: { date: '2027-09-02', confirm: true } }) },
+  'GET /api/properties/[propertyId]/expenses': { b: (f) => ({ path: `/api/properties/${f.propertyB.id}/expenses` }) },
+  'POST /api/properties/[propertyId]/expenses': {
+    b: (f) => ({
+      path: `/api/properties/${f.propertyB.id}/expenses`,
+      body: { season: 'fall', year: 2027, spentOn: '2027-08-01', category: 'fuel', description: 'Not yours', amount: '1', paidBy: f.people.ownerB.user.id },
+    }),
+    // A's property, B's plot and B's owner in the body.
+    mixed: (f) => ({
+      path: `/api/properties/${f.propertyA.id}/expenses`,
+      body: { plotId: f.plotB.id, season: 'fall', year: 2027, spentOn: '2027-08-01', category: 'fuel', description: 'Not yours', amount: '1', paidBy: f.people.owner.user.id },
+    }),
+  },
+  'DELETE /api/properties/[propertyId]/expenses/[expenseId]': {
+    b: (f, x) => ({ path: `/api/properties/${f.propertyB.id}/expenses/${x.expenseId}` }),
+    mixed: (f, x) => ({ path: `/api/properties/${f.propertyA.id}/expenses/${x.expenseId}` }),
+  },
+  'GET /api/properties/[propertyId]/expenses/export': { b: (f) => ({ path: `/api/properties/${f.propertyB.id}/expenses/export` }) },
+  'DELETE /api/settings/calendar-feeds/[feedId]': { b: (_f, x) => ({ path: `/api/settings/calendar-feeds/${x.feedId}` }) },
+  'POST /api/plots/[plotId]/photos': { b: (f) => ({ path: `/api/plots/${f.plotB.id}/photos`, options: multipartFile('spot.jpg', 'not even a photo') }) },
+  'GET /api/uploads/[uploadId]': { b: (_f, x) => ({ path: `/api/uploads/${x.uploadId}` }) },
+  'DELETE /api/uploads/[uploadId]': { b: (_f, x) => ({ path: `/api/uploads/${x.uploadId}` }) },
+  'GET /api/uploads/[uploadId]/thumb': { b: (_f, x) => ({ path: `/api/uploads/${x.uploadId}/thumb` }) },
+  'GET /api/plantings/[plantingId]/observations': { b: (_f, x) => ({ path: `/api/plantings/${x.plantingId}/observations` }) },
+  'POST /api/plantings/[plantingId]/observations': {
+    b: (_f, x) => ({ path: `/api/plantings/${x.plantingId}/observations`, body: { standRating: 3, frameCounts: [4], frameSqFt: 1, weedPressure: 'light' } }),
+  },
+  'POST /api/plantings/[plantingId]/reseed/preview': {
+    b: (_f, x) => ({ path: `/api/plantings/${x.plantingId}/reseed/preview`, body: { observationId: x.observationId } }),
+    // A's planting, B's check.
+    mixed: (f, x) => ({ path: `/api/plantings/${f.context.cloverA}/reseed/preview`, body: { observationId: x.observationId } }),
+  },
+  'POST /api/plantings/[plantingId]/reseed': {
+    b: (_f, x) => ({ path: `/api/plantings/${x.plantingId}/reseed`, body: { observationId: x.observationId } }),
+    mixed: (f, x) => ({ path: `/api/plantings/${f.context.cloverA}/reseed`, body: { observationId: x.observationId } }),
+  },
+};
+
+// Ids that are secrets in their own right (a token is the permission), not ids of a property's rows.
+const TOKEN_ROUTE = /\[token\]|\[\.\.\.nextauth\]/;
+
+it('every route with an id in its path has a request with the ids of another property', () => {
+  const withIds = CASES.map((c) => `${c.method} ${c.route}`).filter((k) => /\[\w+\]/.test(k) && !TOKEN_ROUTE.test(k)).sort();
+  expect(withIds.length).toBeGreaterThanOrEqual(40);
+  expect(Object.keys(CROSS).sort()).toEqual(withIds);
+});
+
+/** Count and md5 of every row, in every table, whose text names one of B's ids (PostgreSQL record output). */
+async function rowsNaming(fx: Fixture, ids: string[]) {
+  const { rows: tables } = await sql<{ t: string }>`
+    select n.nspname || '.' || c.relname as t from pg_class c join pg_namespace n on n.oid = c.relnamespace
+    where c.relkind in ('r', 'p') and not c.relispartition and n.nspname not in ('pg_catalog', 'information_schema') and n.nspname not like 'pg_toast%'
+    order by 1`.execute(fx.db);
+  const pattern = ids.join('|');
+  const out: Record<string, string> = {};
+  for (const { t } of tables) {
+    const { rows } = await sql<{ n: number; sum: string | null }>`
+      select count(*)::int as n, md5(string_agg(md5(r::text), ',' order by md5(r::text))) as sum from ${sql.table(t)} as r where r::text ~ ${pattern}`.execute(fx.db);
+    if (rows[0].n) out[t] = `${rows[0].n}:${rows[0].sum}`;
+  }
+  return out;
+}
+
+describe('every id-taking route, with the ids of property B', () => {
+  let x: Foreign;
+  let idsOfB: string[];
+
+  beforeAll(async () => {
+    const ownerB = fx.people.ownerB;
+    const blend = await ownerB.client.post(`/api/properties/${fx.propertyB.id}/blends`, { name: `B blend ${randomUUID()}`, parts: [{ speciesId: 'white-clover', share: 1 }] });
+    const record = await recordOf(fx, fx.propertyB.id, fx.plotB.id);
+    const expenseId = await expenseOf(fx, fx.propertyB.id, ownerB.user.id);
+    const { storage } = await import('@/lib/storage');
+    const bytes = new TextEncoder().encode(`B's file ${randomUUID()}`);
+    const key = await storage().put('photos', bytes, 'image/webp');
+    const upload = await fx.db
+      .insertInto('uploads')
+      .values({
+        property_id: fx.propertyB.id, plot_id: fx.plotB.id, kind: 'photo', filename: 'b.webp', content_type: 'image/webp', size_bytes: bytes.byteLength,
+        sha256: createHash('sha256').update(bytes).digest('hex'), storage_key: key, thumb_key: key, width: 8, height: 8, uploaded_by: ownerB.user.id,
+      })
+      .returning('id')
+      .executeTakeFirstOrThrow();
+    const step = await fx.db.selectFrom('steps').select('planting_id').where('id', '=', fx.stepB.id).executeTakeFirstOrThrow();
+    const observation = await fx.db
+      .insertInto('observations')
+      .values({
+        planting_id: step.planting_id, plot_id: fx.plotB.id, observed_on: '2027-09-20', observed_at: new Date(), stand_rating: 1,
+        frame_counts: JSON.stringify([1, 0, 0]), frame_sq_ft: 1, plants_per_sq_ft: 0.3, weed_pressure: 'light', verdict: 'poor',
+      })
+      .returning('id')
+      .executeTakeFirstOrThrow();
+    const invitation = await invite(ownerB.client, fx.propertyB.id, uniqueEmail('b-invite'), 'viewer');
+    const feed = await ownerB.client.post('/api/settings/calendar-feeds', { label: 'B phone' });
+    x = {
+      blendId: blend.body.blend.id, recordId: record.id, expenseId, uploadId: upload.id, plantingId: step.planting_id,
+      observationId: observation.id, invitationId: invitation.id, feedId: feed.body.feed.id,
+    };
+    fx.context = { cloverA: await cloverPlantingOf(fx) };
+    idsOfB = [fx.propertyB.id, fx.plotB.id, fx.stepB.id, ownerB.user.id, ...Object.values(x)];
+  });
+
+  for (const [key, cross] of Object.entries(CROSS)) {
+    it(`${key}: 404 for A's owner, manager, member and viewer${cross.mixed ? "; A's path with B's id too" : ''}; B unchanged`, async () => {
+      const method = key.split(' ')[0];
+      const before = await rowsNaming(fx, idsOfB);
+      const send = (actor: Actor, r: CrossRequest) =>
+        fx.clients[actor].request(method, r.path, r.options ?? (r.body === undefined ? {} : { json: r.body }));
+      const noLeak = (who: string, res: ApiResponse) => {
+        expect(res.text, who).not.toContain(fx.plotB.name);
+        expect(res.text, who).not.toContain(fx.propertyB.name);
+      };
+      for (const actor of ['owner', 'manager', 'member', 'viewer'] as const) {
+        const res = await send(actor, cross.b(fx, x));
+        expect(res.status, `${actor}: ${res.text.slice(0, 200)}`).toBe(404);
+        expect(res.body, actor).toEqual({ error: 'Not found' });
+        noLeak(actor, res);
+      }
+      if (cross.mixed) {
+        // B's id inside A's path (or body) must get exactly the answer an id that exists nowhere gets.
+        const real = cross.mixed(fx, x);
+        let text = JSON.stringify(real);
+        for (const id of idsOfB) text = text.replaceAll(id, randomUUID());
+        const [withB, withNothing] = [await send('owner', real), await send('owner', JSON.parse(text))];
+        expect([400, 404], withB.text.slice(0, 200)).toContain(withB.status);
+        expect([withB.status, withB.body]).toEqual([withNothing.status, withNothing.body]);
+        noLeak("A's owner, A's path", withB);
+      }
+      expect(await rowsNaming(fx, idsOfB)).toEqual(before);
+    });
+  }
 });
