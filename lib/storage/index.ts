@@ -55,7 +55,7 @@ export function diskStorage(root: string): Storage {
   };
 }
 
-export function s3Storage(env: NodeJS.ProcessEnv = process.env): Storage {
+export function s3Storage(env: Record<string, string | undefined> = process.env): Storage {
   const bucket = env.S3_BUCKET;
   if (!bucket) throw new Error('SOWCAST_STORAGE=s3 needs S3_BUCKET');
   // Loaded on first use so local installs never load the SDK.
@@ -66,6 +66,10 @@ export function s3Storage(env: NodeJS.ProcessEnv = process.env): Storage {
         new sdk.S3Client({
           region: env.S3_REGION || env.AWS_REGION || 'us-east-1',
           ...(env.S3_ENDPOINT ? { endpoint: env.S3_ENDPOINT, forcePathStyle: true } : {}),
+          // Checksums only where S3 requires them: many S3-compatible services refuse the SDK's default
+          // CRC32 trailers (aws-chunked uploads); the bytes are checked with our own SHA-256 anyway.
+          requestChecksumCalculation: 'WHEN_REQUIRED',
+          responseChecksumValidation: 'WHEN_REQUIRED',
         }),
       ] as const,
   );
@@ -98,7 +102,7 @@ export function s3Storage(env: NodeJS.ProcessEnv = process.env): Storage {
 let current: Storage | null = null;
 
 /** The storage the environment selects, made once per process. */
-export function storage(env: NodeJS.ProcessEnv = process.env): Storage {
+export function storage(env: Record<string, string | undefined> = process.env): Storage {
   if (!current) {
     current =
       env.SOWCAST_STORAGE === 's3'
