@@ -210,17 +210,21 @@ export function BoundaryDrawing({ feature, label }: { feature: PlotBoundaryDto['
           <line x1={0} x2={barPx} y1={0} y2={0} stroke="currentColor" strokeWidth={3} />
           <line x1={0} x2={0} y1={-5} y2={5} stroke="currentColor" strokeWidth={2} />
           <line x1={barPx} x2={barPx} y1={-5} y2={5} stroke="currentColor" strokeWidth={2} />
-          <text x={barPx + 8} y={5} fontSize={13} fill="currentColor">
+          {/* Sized for a phone, where the drawing is shown at about two thirds of its own width. */}
+          <text x={barPx + 8} y={6} fontSize={18} fill="currentColor">
             {barFeet.toLocaleString('en-US')} ft
           </text>
         </g>
         <g transform={`translate(${WIDTH - PAD},${PAD + 4})`} className="text-loam-soft">
           <path d="M0,-12 L5,2 L0,-2 L-5,2 Z" fill="currentColor" />
-          <text x={0} y={16} fontSize={12} textAnchor="middle" fill="currentColor">
+          <text x={0} y={20} fontSize={17} fontWeight={600} textAnchor="middle" fill="currentColor">
             N
           </text>
         </g>
       </svg>
+      <figcaption className="mt-1 text-sm text-loam-soft">
+        North is up; the bar is {barFeet.toLocaleString('en-US')} ft.
+      </figcaption>
     </figure>
   );
 }
