@@ -17,13 +17,20 @@ export function databaseUrl(): string {
 }
 
 export function createPool(url = databaseUrl()): pg.Pool {
-  return new pg.Pool({
+  const pool = new pg.Pool({
     connectionString: url,
     max: Number(process.env.PG_POOL_MAX ?? 10),
     // Fail fast instead of hanging when the server is down: the route answers 503.
     connectionTimeoutMillis: 5_000,
     idleTimeoutMillis: 30_000,
   });
+  // node-postgres emits an idle client's error (server restarted, connection terminated) on the pool; with no
+  // listener that is an uncaught exception that ends the process. The client is discarded and the next query
+  // opens a new connection, so noting it is enough.
+  pool.on('error', (error) => {
+    console.warn(`PostgreSQL connection lost while idle: ${error.message}`);
+  });
+  return pool;
 }
 
 export function createDb(pool: pg.Pool): Kysely<Database> {
