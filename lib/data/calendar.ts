@@ -37,6 +37,11 @@ export async function calendarSteps(o: {
   plotId?: string;
   kind?: StepKindColumn;
   assigneeId?: string;
+  /**
+   * Only the planned steps that are this person's to do: given to them, or given to nobody on a property
+   * where they are manager or owner (the dashboard's "my steps").
+   */
+  plannedForMe?: boolean;
 }): Promise<CalendarStepRow[]> {
   let query = getDb()
     .selectFrom('steps')
@@ -71,5 +76,15 @@ export async function calendarSteps(o: {
   if (o.plotId) query = query.where('plots.id', '=', o.plotId);
   if (o.kind) query = query.where('steps.kind', '=', o.kind);
   if (o.assigneeId) query = query.where('steps.assignee_id', '=', o.assigneeId);
+  if (o.plannedForMe) {
+    query = query
+      .where('steps.status', '=', 'planned')
+      .where((eb) =>
+        eb.or([
+          eb('steps.assignee_id', '=', o.userId),
+          eb.and([eb('steps.assignee_id', 'is', null), eb('memberships.role', 'in', ['manager', 'owner'])]),
+        ]),
+      );
+  }
   return query.orderBy('steps.local_date').orderBy('plots.name').orderBy('steps.position').execute();
 }

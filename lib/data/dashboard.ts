@@ -68,21 +68,31 @@ export async function recordDashboardVisit(userId: string, at: Date): Promise<Da
   });
 }
 
+/** The local date of `now` in each zone asked for, worked out once per zone (date-fns-tz is slow per call). */
+function localTodays(now: Date): (timeZone: string) => string {
+  const byZone = new Map<string, string>();
+  return (timeZone) => {
+    let today = byZone.get(timeZone);
+    if (today === undefined) byZone.set(timeZone, (today = localDateOf(now, timeZone)));
+    return today;
+  };
+}
+
 /** Steps of mine: assigned to me, or nobody's yet on a property where I run the work (manager or owner). */
 async function myUpcomingSteps(userId: string, now: Date) {
   // Zones run from UTC−12 to UTC+14, so one UTC day either side covers every property's "today".
   const utcToday = localDateOf(now, 'UTC');
-  const rows = await calendarSteps({ userId, from: addDays(utcToday, -1), to: addDays(utcToday, WEEK_DAYS + 1) });
-  const mine = rows.filter(
-    (r) => r.status === 'planned' && (r.assignee_id === userId || (r.assignee_id === null && (r.role === 'manager' || r.role === 'owner'))),
-  );
-  const events = calendarEvents(mine, userId, addDays(utcToday, -1), addDays(utcToday, WEEK_DAYS + 1));
+  const from = addDays(utcToday, -1);
+  const to = addDays(utcToday, WEEK_DAYS + 1);
+  const rows = await calendarSteps({ userId, from, to, plannedForMe: true });
+  const events = calendarEvents(rows, userId, from, to);
+  const localToday = localTodays(now);
   const today: CalendarEvent[] = [];
   const thisWeek: CalendarEvent[] = [];
   for (const event of events) {
-    const localToday = localDateOf(now, event.timeZone);
-    if (event.start === localToday) today.push(event);
-    else if (event.start > localToday && event.start < addDays(localToday, WEEK_DAYS)) thisWeek.push(event);
+    const day = localToday(event.timeZone);
+    if (event.start === day) today.push(event);
+    else if (event.start > day && event.start < addDays(day, WEEK_DAYS)) thisWeek.push(event);
   }
   return { today, thisWeek };
 }
@@ -144,8 +154,9 @@ async function germinationDue(userId: string, now: Date): Promise<GerminationDue
     .orderBy('steps.local_date')
     .orderBy('plots.name')
     .execute();
+  const localToday = localTodays(now);
   return rows.flatMap((r) => {
-    const today = localDateOf(now, r.time_zone);
+    const today = localToday(r.time_zone);
     if (r.local_date > today) return [];
     const daysLate = Math.round((Date.parse(today) - Date.parse(r.local_date)) / 86_400_000);
     return [{ stepId: r.step_id, plotId: r.plot_id, plotName: r.plot_name, propertyName: r.property_name, date: r.local_date, daysLate }];

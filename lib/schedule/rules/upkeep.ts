@@ -87,18 +87,60 @@ export interface Occurrence {
   startsAt: string; // ISO instant in UTC
 }
 
-/** Occurrences between two local dates (inclusive), with wall-clock time kept across DST changes. */
-export function expandRecurrence(recurrence: string, from: string, to: string): Occurrence[] {
+interface ParsedRecurrence {
+  rule: InstanceType<typeof RRule>;
+  timeZone: string;
+}
+
+// A calendar of a thousand plots expands the same few hundred rule texts on every request: each is parsed
+// once, and each (rule, range) expanded once. Both maps are emptied when full, so they stay bounded.
+const CACHE_LIMIT = 5_000;
+const parsedRules = new Map<string, ParsedRecurrence>();
+const expansions = new Map<string, readonly Occurrence[]>();
+
+function remember<V>(cache: Map<string, V>, key: string, value: V): V {
+  if (cache.size >= CACHE_LIMIT) cache.clear();
+  cache.set(key, value);
+  return value;
+}
+
+function parseRecurrence(recurrence: string): ParsedRecurrence {
+  const known = parsedRules.get(recurrence);
+  if (known) return known;
   const dtstart = /DTSTART;TZID=([^:\s]+):(\d{4})(\d{2})(\d{2})T(\d{2})(\d{2})(\d{2})/.exec(recurrence);
   const rruleLine = recurrence.split(/\r?\n/).find((line) => line.startsWith('RRULE:'));
   if (!dtstart || !rruleLine) throw new Error('A recurrence needs DTSTART;TZID=… and an RRULE line.');
   const [, timeZone, y, mo, d, hh, mm] = dtstart;
-  const rule = new RRule({ ...RRule.parseString(rruleLine.slice('RRULE:'.length)), dtstart: floating(`${y}-${mo}-${d}`, `${hh}:${mm}`) });
-  return rule.between(floating(from, '00:00'), floating(to, '23:59'), true).map((o) => {
-    const date = o.toISOString().slice(0, 10);
-    const clock = o.toISOString().slice(11, 16);
-    return { date, clock, startsAt: instantOf(date, clock, timeZone).toISOString() };
+  // noCache: rrule's own result cache would grow with every range ever asked; `expansions` is bounded.
+  const rule = new RRule({ ...RRule.parseString(rruleLine.slice('RRULE:'.length)), dtstart: floating(`${y}-${mo}-${d}`, `${hh}:${mm}`) }, true);
+  return remember(parsedRules, recurrence, { rule, timeZone });
+}
+
+function occurrence(o: Date, timeZone: string): Occurrence {
+  const text = o.toISOString();
+  const date = text.slice(0, 10);
+  const clock = text.slice(11, 16);
+  // The instant is worked out only when asked for: the calendar and My steps read the local date and clock
+  // alone, and date-fns-tz's zone lookup costs more than the rest of an occurrence.
+  return Object.freeze({
+    date,
+    clock,
+    get startsAt() {
+      return instantOf(date, clock, timeZone).toISOString();
+    },
   });
+}
+
+/** Occurrences between two local dates (inclusive), with wall-clock time kept across DST changes. */
+export function expandRecurrence(recurrence: string, from: string, to: string): Occurrence[] {
+  const key = `${from}/${to}/${recurrence}`;
+  let occurrences = expansions.get(key);
+  if (!occurrences) {
+    const { rule, timeZone } = parseRecurrence(recurrence);
+    occurrences = remember(expansions, key, rule.between(floating(from, '00:00'), floating(to, '23:59'), true).map((o) => occurrence(o, timeZone)));
+  }
+  // The occurrences are frozen and shared; the array is the caller's own.
+  return occurrences.slice();
 }
 
 function addYears(date: string, years: number): string {
