@@ -1,6 +1,6 @@
 // Seed-zone soil temperature per local day. Seeding rules compare it with each species' germination minimum, so a
 // day must be the property's calendar day (IANA zone), not a UTC day.
-import { formatInTimeZone } from 'date-fns-tz';
+import { fromDayNumber, isKnownTimeZone, offsetsForSortedInstants } from '@/lib/schedule/local-dates';
 
 export interface HourlyTemp {
   /** ISO instant. */
@@ -62,12 +62,22 @@ export function estimateSoilTempC(dailyMeanAirC: number[], windowDays: number = 
   return weighted / weights;
 }
 
+const DAY_MS = 86_400_000;
+
 function assertTimeZone(timeZone: string): void {
-  try {
-    new Intl.DateTimeFormat('en-US', { timeZone });
-  } catch {
+  if (!isKnownTimeZone(timeZone)) {
     throw new RangeError(`Unknown time zone "${timeZone}"; use an IANA name such as America/Chicago.`);
   }
+}
+
+/**
+ * Local dates ('YYYY-MM-DD') of sorted instants in a zone. The zone's offset changes only at its transitions,
+ * so it is looked up a handful of times per forecast (offsetsForSortedInstants bisects between them) rather
+ * than formatted through Intl for each of 384 hours; the date is then the civil day of instant + offset.
+ */
+export function localDatesOfSortedInstants(timeZone: string, instantsMs: readonly number[]): string[] {
+  const offsets = offsetsForSortedInstants(timeZone, instantsMs);
+  return instantsMs.map((ms, i) => fromDayNumber(Math.floor((ms + offsets[i]) / DAY_MS)));
 }
 
 export function dailySoilTemperatures(
@@ -92,8 +102,9 @@ export function dailySoilTemperatures(
     return { hour, instantMs: instant.getTime() };
   });
   stamped.sort((a, b) => a.instantMs - b.instantMs);
-  for (const { hour, instantMs } of stamped) {
-    const date = formatInTimeZone(instantMs, timeZone, 'yyyy-MM-dd');
+  const dates = localDatesOfSortedInstants(timeZone, stamped.map((s) => s.instantMs));
+  for (const [i, { hour }] of stamped.entries()) {
+    const date = dates[i];
     let day = byDate.get(date);
     if (!day) {
       day = { air: [], soil: [] };

@@ -1,4 +1,5 @@
-import type { Kysely, Selectable, Transaction } from 'kysely';
+import { isDeepStrictEqual } from 'node:util';
+import { sql, type Kysely, type Selectable, type Transaction } from 'kysely';
 import { getDb } from '@/db';
 import type { Database, PlantingsTable, StepsTable } from '@/db/database';
 import type { Plan, PlanStep, StepChange } from '@/lib/schedule/types';
@@ -113,10 +114,53 @@ export async function loadPlan(plantingId: string, db: Db = getDb()): Promise<Pl
   };
 }
 
+type StepColumns = ReturnType<typeof stepColumns>;
+
+// What a replan may change on a planned step (status, done_on and pinned belong to people, never to a
+// replan; the key is how the step is found). A Record, so a column added to stepColumns cannot be left out
+// of the comparison without the compiler saying so.
+type ReplannedColumn = Exclude<keyof StepColumns, 'key' | 'status' | 'done_on' | 'pinned'>;
+const REPLANNED: Record<ReplannedColumn, 'value' | 'json'> = {
+  kind: 'value',
+  title: 'value',
+  position: 'value',
+  local_date: 'value',
+  window_start: 'value',
+  window_end: 'value',
+  hours: 'json',
+  after: 'json',
+  quantities: 'json',
+  cautions: 'json',
+  rules: 'json',
+  warnings: 'json',
+  reason: 'value',
+  recurrence: 'value',
+};
+const REPLANNED_COLUMNS = Object.entries(REPLANNED) as [ReplannedColumn, 'value' | 'json'][];
+
+/**
+ * True when the stored row already holds what the plan says. jsonb keeps neither key order nor spacing, so
+ * JSON columns are compared as values (the new text parsed back), not as text. A false "changed" only costs
+ * a write; the comparison is exact for everything jsonb stores.
+ */
+function sameAsStored(row: StepRow, columns: StepColumns): boolean {
+  for (const [name, how] of REPLANNED_COLUMNS) {
+    const next = columns[name];
+    const stored = row[name] ?? null;
+    if (how === 'value' ? stored !== next : !isDeepStrictEqual(stored, next === null ? null : JSON.parse(next as string))) return false;
+  }
+  return true;
+}
+
 /**
  * Writes a replanned plan: steps updated by key (done steps keep their record), new steps added, steps the
  * plan no longer has removed unless done, and one history row per move with its reason.
  * Returns the moves written, each with the step id.
+ *
+ * A replan usually moves one or two of a planting's ~25 steps, and the worker writes thousands of plantings
+ * a cycle: so only steps whose columns differ from the stored row are written (an unchanged step also keeps
+ * its updated_at, which the calendar feed's SEQUENCE and LAST-MODIFIED follow), and each kind of write is
+ * one statement, whatever the number of steps.
  */
 export async function saveReplan(
   o: {
@@ -136,22 +180,39 @@ export async function saveReplan(
     const byKey = new Map(existing.map((row) => [row.key, row]));
     const keep = new Set(o.plan.steps.map((s) => s.key));
     const ids = new Map<string, string>();
+    const added: (StepColumns & { planting_id: string })[] = [];
+    const changed: { id: string; columns: StepColumns }[] = [];
     for (const [position, step] of o.plan.steps.entries()) {
       const row = byKey.get(step.key);
       const columns = stepColumns(step, position);
       if (!row) {
-        const inserted = await trx
-          .insertInto('steps')
-          .values({ planting_id: o.plantingId, ...columns })
-          .returning('id')
-          .executeTakeFirstOrThrow();
-        ids.set(step.key, inserted.id);
+        added.push({ planting_id: o.plantingId, ...columns });
         continue;
       }
       ids.set(step.key, row.id);
       if (row.status !== 'planned') continue; // done and skipped steps are records, not plans
-      const { status: _status, done_on: _doneOn, pinned: _pinned, ...planned } = columns;
-      await trx.updateTable('steps').set({ ...planned, updated_at: new Date() }).where('id', '=', row.id).execute();
+      if (!sameAsStored(row, columns)) changed.push({ id: row.id, columns });
+    }
+    if (added.length) {
+      const inserted = await trx.insertInto('steps').values(added).returning(['id', 'key']).execute();
+      for (const row of inserted) ids.set(row.key, row.id);
+    }
+    if (changed.length) {
+      // One UPDATE for every changed step. VALUES has no column types of its own, so each value is cast to
+      // its column's type (the first row would otherwise fix them as text).
+      const updatedAt = new Date();
+      const rows = changed.map(({ id, columns: c }) =>
+        sql`(${id}::uuid, ${c.kind}::step_kind, ${c.title}, ${c.position}::integer, ${c.local_date}::date, ${c.window_start}::date, ${c.window_end}::date, ${c.hours}::jsonb, ${c.after}::jsonb, ${c.quantities}::jsonb, ${c.cautions}::jsonb, ${c.rules}::jsonb, ${c.warnings}::jsonb, ${c.reason}, ${c.recurrence})`,
+      );
+      await sql`
+        update steps set
+          kind = v.kind, title = v.title, "position" = v."position", local_date = v.local_date,
+          window_start = v.window_start, window_end = v.window_end, hours = v.hours, "after" = v."after",
+          quantities = v.quantities, cautions = v.cautions, rules = v.rules, warnings = v.warnings,
+          reason = v.reason, recurrence = v.recurrence, updated_at = ${updatedAt}::timestamptz
+        from (values ${sql.join(rows)}) as v(id, kind, title, "position", local_date, window_start, window_end, hours, "after", quantities, cautions, rules, warnings, reason, recurrence)
+        where steps.id = v.id and steps.planting_id = ${o.plantingId}::uuid
+      `.execute(trx);
     }
     const gone = existing.filter((row) => !keep.has(row.key) && row.status === 'planned').map((row) => row.id);
     if (gone.length) await trx.deleteFrom('steps').where('id', 'in', gone).execute();
