@@ -136,3 +136,22 @@ export async function reseedFor(plantingId: string, observationId: string) {
   if (!place) throw notFound();
   return { observation, place };
 }
+
+/**
+ * The reseeding a check calls for, as both the preview and the acceptance need it: the check must belong to the
+ * planting and have found a fair or poor stand; the engine then plans the reseed against today's forecast.
+ */
+export async function reseedProposalFor(planting: Selectable<PlantingsTable>, observationId: string, now: Date) {
+  const { observation, place } = await reseedFor(planting.id, observationId);
+  const stand = standOf(planting, observation.frameCounts, observation.frameSqFt);
+  if (stand.verdict === 'good') {
+    throw new HttpError(409, 'This check found a good stand; there is nothing to reseed', { observationId: 'The stand is good' });
+  }
+  try {
+    const reseed = await proposeReseed({ planting, plot: place.plot, property: place.property, missingShare: stand.missingShare, now });
+    return { observation, stand, reseed };
+  } catch (error) {
+    if (error instanceof RangeError) throw new HttpError(400, error.message);
+    throw error;
+  }
+}

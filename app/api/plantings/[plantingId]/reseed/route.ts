@@ -4,7 +4,7 @@ import { createPlanting, getStepRows, toStepDto, withPlantingLock } from '@/lib/
 import { toPlantingDto } from '@/lib/data/steps';
 import { HttpError, json, parseBody, route } from '@/lib/http';
 import { requirePlantingRole } from '@/lib/planning/planting-access';
-import { proposeReseed, reseedFor, standOf } from '@/lib/planning/stand-check';
+import { reseedProposalFor } from '@/lib/planning/stand-check';
 import { reseedSchema } from '@/lib/validations/observation';
 
 type Context = { params: Promise<{ plantingId: string }> };
@@ -18,19 +18,7 @@ export const POST = route(async (request, { params }: Context) => {
   const { plantingId } = await params;
   const { planting, user } = await requirePlantingRole(plantingId, 'manager');
   const body = await parseBody(request, reseedSchema);
-  const at = now();
-  const { observation, place } = await reseedFor(plantingId, body.observationId);
-  const stand = standOf(planting, observation.frameCounts, observation.frameSqFt);
-  if (stand.verdict === 'good') {
-    throw new HttpError(409, 'This check found a good stand; there is nothing to reseed', { observationId: 'The stand is good' });
-  }
-  let reseed;
-  try {
-    reseed = await proposeReseed({ planting, plot: place.plot, property: place.property, missingShare: stand.missingShare, now: at });
-  } catch (error) {
-    if (error instanceof RangeError) throw new HttpError(400, error.message);
-    throw error;
-  }
+  const { observation, reseed } = await reseedProposalFor(planting, body.observationId, now());
   // Under the original planting's lock, so two acceptances of one check cannot both make a planting.
   const created = await withPlantingLock(plantingId, async (trx) => {
     const locked = await lockObservation(trx, observation.id);

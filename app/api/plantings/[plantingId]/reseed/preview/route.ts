@@ -1,7 +1,7 @@
 import { now } from '@/lib/clock';
-import { HttpError, json, parseBody, route } from '@/lib/http';
+import { json, parseBody, route } from '@/lib/http';
 import { requirePlantingRole } from '@/lib/planning/planting-access';
-import { proposeReseed, reseedFor, standOf } from '@/lib/planning/stand-check';
+import { reseedProposalFor } from '@/lib/planning/stand-check';
 import { roleAtLeast } from '@/lib/validations/membership';
 import { reseedSchema } from '@/lib/validations/observation';
 
@@ -15,17 +15,6 @@ export const POST = route(async (request, { params }: Context) => {
   const { plantingId } = await params;
   const { planting, role } = await requirePlantingRole(plantingId, 'member');
   const body = await parseBody(request, reseedSchema);
-  const at = now();
-  const { observation, place } = await reseedFor(plantingId, body.observationId);
-  const stand = standOf(planting, observation.frameCounts, observation.frameSqFt);
-  if (stand.verdict === 'good') {
-    throw new HttpError(409, 'This check found a good stand; there is nothing to reseed', { observationId: 'The stand is good' });
-  }
-  try {
-    const reseed = await proposeReseed({ planting, plot: place.plot, property: place.property, missingShare: stand.missingShare, now: at });
-    return json({ reseed, stand, acceptedPlantingId: observation.reseedPlantingId, canAcceptReseed: roleAtLeast(role, 'manager') });
-  } catch (error) {
-    if (error instanceof RangeError) throw new HttpError(400, error.message);
-    throw error;
-  }
+  const { observation, stand, reseed } = await reseedProposalFor(planting, body.observationId, now());
+  return json({ reseed, stand, acceptedPlantingId: observation.reseedPlantingId, canAcceptReseed: roleAtLeast(role, 'manager') });
 });
