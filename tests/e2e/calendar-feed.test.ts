@@ -41,7 +41,8 @@ describe('calendar feeds in settings', () => {
 
     // After a reload the address is gone from the page: only its label and dates remain.
     await page.reload();
-    await page.getByText('My phone').waitFor();
+    // The label as listed (the field's hint and the Revoke button's hidden text also say it).
+    await page.getByRole('paragraph').filter({ hasText: /^My phone$/ }).waitFor();
     expect(await page.getByLabel('Your calendar address').count()).toBe(0);
     expect(await page.content()).not.toContain(new URL(url).pathname);
     await page.getByRole('button', { name: /Revoke/ }).click();
