@@ -45,10 +45,12 @@ export type StepKind =
 
 export interface HerbicidePlan {
   productName: string;
+  /** Ids of the product's actives (lib/agronomy/herbicides.ts): they set plant-back, kill wait and rainfast. */
+  activeIngredients?: string[];
   activeIngredientPct?: number | null;
   /** As the label gives it: percent of the spray volume (v/v), or fluid ounces of product per acre. */
   rate: { percentSolution: number } | { flOzPerAcre: number };
-  rainfastHours?: number | null; // from the label; absent → SPRAY_WINDOW_DEFAULTS.rainfastHours
+  rainfastHours?: number | null; // from the label; absent → the actives' longest, else SPRAY_WINDOW_DEFAULTS.rainfastHours
   maxWindMph?: number | null; // label limit; absent → the 3–8 mph stewardship band
   minTempF?: number | null;
   maxTempF?: number | null;
@@ -96,6 +98,7 @@ export type RuleName =
   | 'germination-check'
   | 'burn-window'
   | 'frozen-ground'
+  | 'plant-back'
   | 'upkeep';
 
 /** A rule's verdict on one date. `marginal` marks "allowed, with care" (e.g. Delta T 8–10 °C). */

@@ -1,8 +1,10 @@
 // Spray window: the hours of a day when a burndown can go on — in daylight, with no measurable rain inside
 // the product's rainfast period, wind inside the label's limit (or the stewardship band), air temperature in
 // the product's range, and Delta T in the band where droplets neither drift on still humid air nor
-// evaporate before they land. The label always governs; these are the defaults for what it leaves unsaid.
+// evaporate before they land; not in the hour after sunrise or the two before sunset, when inversions form;
+// not in gusts or when rain is likely. The label always governs; these are the defaults for what it leaves unsaid.
 import { windSpeedAt2m } from '@/lib/agronomy/et0';
+import { mixRainfastHours } from '@/lib/agronomy/herbicides';
 import { deltaTC } from '@/lib/agronomy/psychrometrics';
 import { cToF, kmhToMph, kmhToMs, msToKmh } from '@/lib/agronomy/units';
 import { sunTimes, type SunTimes } from '../daylight';
@@ -30,6 +32,14 @@ export interface SprayWindowParams {
   deltaTMarginalMaxC: number;
   /** Shortest run of hours worth calling a window (mixing, spraying and rinsing a small plot's fills). */
   minWindowHours: number;
+  /** Hours after sunrise before spraying starts, and before sunset when it stops (inversions). */
+  afterSunriseHours: number;
+  beforeSunsetHours: number;
+  /** Gusts at spray height above this stop spraying. */
+  gustMaxMph: number;
+  /** Chance of rain in the rainfast period: from the first, spray with care; from the second, not at all. */
+  rainChanceCarePct: number;
+  rainChanceAvoidPct: number;
 }
 
 export const SPRAY_WINDOW_DEFAULTS: SprayWindowParams = {
@@ -44,6 +54,11 @@ export const SPRAY_WINDOW_DEFAULTS: SprayWindowParams = {
   deltaTGoodMaxC: 8,
   deltaTMarginalMaxC: 10,
   minWindowHours: 2,
+  afterSunriseHours: 1,
+  beforeSunsetHours: 2,
+  gustMaxMph: 15,
+  rainChanceCarePct: 30,
+  rainChanceAvoidPct: 60,
 };
 
 export const SPRAY_WINDOW_SOURCES: Record<keyof SprayWindowParams, string> = {
@@ -66,11 +81,33 @@ export const SPRAY_WINDOW_SOURCES: Record<keyof SprayWindowParams, string> = {
   deltaTMarginalMaxC:
     'Australian Bureau of Meteorology / GRDC Spray Application Manual (secondary): 8–10 °C marginal (use coarser droplets), above 10 °C avoid',
   minWindowHours: 'common practice, no source: time to mix, spray and rinse the fills of a small food plot',
+  afterSunriseHours:
+    'NDSU Extension AE1876, Understanding Air Temperature Inversions Relating to Pesticide Drift: inversions build overnight and ' +
+    'last into the morning; auxin labels allow spraying only from one hour after sunrise',
+  beforeSunsetHours:
+    'NDSU Extension AE1876: inversions begin to form toward the end of the day; auxin labels stop spraying two hours before sunset',
+  gustMaxMph:
+    'dicamba (Clarity) label: do not apply during periods of gusty wind or when wind is in excess of 15 mph; used here for gusts at ' +
+    'spray height (forecast gusts at 10 m brought down by the same FAO-56 profile — an approximation)',
+  rainChanceCarePct: 'common practice, no source: a 30 % chance of rain in the rainfast period is worth watching the radar for',
+  rainChanceAvoidPct: 'common practice, no source: at a 60 % chance of rain in the rainfast period, wait for a drier day',
 };
 
 export type SprayHourLevel = 'good' | 'marginal' | 'bad';
-type Blocker = 'past' | 'dark' | 'rain' | 'wind-high' | 'wind-low' | 'cold' | 'hot' | 'delta-t-high' | 'forecast-ends';
-type Care = 'delta-t-marginal' | 'delta-t-low';
+type Blocker =
+  | 'past'
+  | 'dark'
+  | 'inversion-hours'
+  | 'rain'
+  | 'rain-likely'
+  | 'wind-high'
+  | 'gusts'
+  | 'wind-low'
+  | 'cold'
+  | 'hot'
+  | 'delta-t-high'
+  | 'forecast-ends';
+type Care = 'delta-t-marginal' | 'delta-t-low' | 'rain-chance';
 
 export interface SprayHour {
   index: number;
@@ -103,10 +140,12 @@ export interface SprayContext {
   cache?: Map<string, SprayDay>;
 }
 
-/** The limits in force: the label's, where it gives them, else the defaults. */
+/** The limits in force: the label's, where it gives them, else the actives' typical values, else the defaults. */
 export function sprayLimits(product: HerbicidePlan | null | undefined, params: SprayWindowParams) {
+  const fromActives = product?.rainfastHours == null && product?.activeIngredients?.length ? mixRainfastHours(product.activeIngredients) : null;
   return {
-    rainfastHours: product?.rainfastHours ?? params.rainfastHours,
+    rainfastHours: product?.rainfastHours ?? fromActives?.hours ?? params.rainfastHours,
+    rainfastFrom: product?.rainfastHours != null ? 'the label' : fromActives ? `typical for ${fromActives.active.name}` : null,
     windMaxMph: product?.maxWindMph ?? params.windMaxMph,
     windMinMph: params.windMinMph,
     tempMinF: product?.minTempF ?? params.tempMinF,
@@ -129,9 +168,16 @@ export function evaluateSprayHour(ctx: SprayContext, index: number, sun: SunTime
   if (ctx.notBeforeMs != null && h.ms < ctx.notBeforeMs) blockers.push('past');
   if (sun.sunriseMs === null ? sun.daylightHours === 0 : h.ms < sun.sunriseMs || slotEnd > (sun.sunsetMs as number)) {
     blockers.push('dark');
+  } else if (
+    sun.sunriseMs !== null &&
+    (h.ms < sun.sunriseMs + params.afterSunriseHours * HOUR_MS || slotEnd > (sun.sunsetMs as number) - params.beforeSunsetHours * HOUR_MS)
+  ) {
+    blockers.push('inversion-hours');
   }
   const windMph = windAtSprayHeightMph(h.windKmh, params);
   if (windMph > limits.windMaxMph) blockers.push('wind-high');
+  const gustMph = h.windGustKmh != null ? windAtSprayHeightMph(h.windGustKmh, params) : null;
+  if (gustMph !== null && gustMph > params.gustMaxMph) blockers.push('gusts');
   if (windMph < limits.windMinMph) blockers.push('wind-low');
   const tempF = cToF(h.airTempC);
   if (tempF < limits.tempMinF) blockers.push('cold');
@@ -145,11 +191,17 @@ export function evaluateSprayHour(ctx: SprayContext, index: number, sun: SunTime
   if (!coversUntil(fc, dryUntilMs)) blockers.push('forecast-ends');
   else {
     const last = hourIndexAfter(fc.hours, dryUntilMs);
+    let chancePct = 0;
     for (let j = index + 1; j < last; j++) {
       if (fc.hours[j].rainMm >= params.measurableRainMm) {
         blockers.push('rain');
         break;
       }
+      chancePct = Math.max(chancePct, fc.hours[j].rainProbabilityPct ?? 0);
+    }
+    if (!blockers.includes('rain')) {
+      if (chancePct >= params.rainChanceAvoidPct) blockers.push('rain-likely');
+      else if (chancePct >= params.rainChanceCarePct) care.push('rain-chance');
     }
   }
   const level: SprayHourLevel = blockers.length ? 'bad' : care.length ? 'marginal' : 'good';
@@ -179,8 +231,11 @@ function longestRun(hours: SprayHour[], accept: (h: SprayHour) => boolean, fc: F
 const BLOCKER_WORDS = (limits: ReturnType<typeof sprayLimits>, params: SprayWindowParams): Record<Blocker, string> => ({
   past: 'already gone by',
   dark: 'outside daylight',
+  'inversion-hours': `within ${formatNumber(params.afterSunriseHours)} h after sunrise or ${formatNumber(params.beforeSunsetHours)} h before sunset (inversion hours)`,
   rain: `rain within ${formatNumber(limits.rainfastHours)} h after spraying`,
+  'rain-likely': `a ${params.rainChanceAvoidPct} % or higher chance of rain within ${formatNumber(limits.rainfastHours)} h after spraying`,
   'wind-high': `wind above ${limits.windMaxMph} mph${limits.labelWind ? ' (the label limit)' : ''}`,
+  gusts: `gusts above ${params.gustMaxMph} mph`,
   'wind-low': `wind below ${limits.windMinMph} mph (inversion risk)`,
   cold: `below ${limits.tempMinF} °F`,
   hot: `above ${limits.tempMaxF} °F`,
@@ -195,9 +250,10 @@ function describeWindow(hours: SprayHour[], window: { start: string; end: string
     `wind ${r(hours.map((h) => h.windMph))} mph`,
     `Delta T ${r(hours.map((h) => h.deltaTC), 1)} °C`,
     `${r(hours.map((h) => h.tempF))} °F`,
-    `no rain for ${formatNumber(limits.rainfastHours)} h after`,
+    `no rain for ${formatNumber(limits.rainfastHours)} h after${limits.rainfastFrom ? ` (${limits.rainfastFrom})` : ''}`,
   ];
   const care = new Set(hours.flatMap((h) => h.care));
+  if (care.has('rain-chance')) parts.push(`a ${params.rainChanceCarePct}–${params.rainChanceAvoidPct} % chance of rain in the rainfast period: watch the radar`);
   if (care.has('delta-t-marginal')) parts.push(`Delta T ${params.deltaTGoodMaxC}–${params.deltaTMarginalMaxC} °C is marginal: use coarse droplets`);
   if (care.has('delta-t-low')) parts.push(`Delta T under ${params.deltaTLowC} °C: humid still air, watch for an inversion`);
   return parts.join(', ');

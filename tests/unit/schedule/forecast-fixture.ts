@@ -28,6 +28,9 @@ export interface FixtureOptions {
   airTempC?: Field<number>;
   relativeHumidityPct?: Field<number>;
   windKmh?: Field<number>;
+  windGustKmh?: Field<number | null>;
+  /** Default: 80 % in an hour with rain, 5 % otherwise. */
+  rainProbabilityPct?: Field<number | null>;
   soilTempC?: Field<number | null>;
   rain?: RainSpell[];
   fetchedAt?: string;
@@ -72,10 +75,11 @@ export function makeForecast(o: FixtureOptions): Forecast {
     return {
       time: new Date(h.ms).toISOString(),
       rainMm,
-      rainProbabilityPct: rainMm > 0 ? 80 : 5,
+      rainProbabilityPct: value(o.rainProbabilityPct, h, rainMm > 0 ? 80 : 5),
       airTempC: value(o.airTempC, h, diurnal(12, 24)(h)),
       relativeHumidityPct: value(o.relativeHumidityPct, h, 55),
       windKmh: value(o.windKmh, h, 12),
+      ...(o.windGustKmh !== undefined ? { windGustKmh: value(o.windGustKmh, h, null) } : {}),
       soilTempC: value(o.soilTempC, h, 18),
     };
   });

@@ -63,9 +63,9 @@ describe('spray window', () => {
       { windKmh: ({ hour }) => (hour < 12 ? tenMetreKmhFor(10) : hour < 15 ? tenMetreKmhFor(5) : tenMetreKmhFor(1.5)) },
       { productName: 'Example burndown', rate: { percentSolution: 2 }, maxWindMph: 12 },
     );
-    // Daylight on 14 Sep at 38.6° N, 90.2° W runs about 06:40–19:10 CDT (NOAA solar equations), so the first
-    // whole daylight hour starts at 07:00.
-    expect(sprayDay(ctx, DAY).hours).toEqual({ start: '07:00', end: '15:00' });
+    // Daylight on 14 Sep at 38.6° N, 90.2° W runs about 06:40–19:10 CDT (NOAA solar equations); spraying starts
+    // an hour after sunrise (NDSU AE1876 / auxin labels), so the first whole hour is 08:00.
+    expect(sprayDay(ctx, DAY).hours).toEqual({ start: '08:00', end: '15:00' });
   });
 
   it('needs the rainfast period dry after the last of the spray goes on', () => {
@@ -73,13 +73,14 @@ describe('spray window', () => {
     const rain = [{ date: DAY, fromHour: 16, hours: 1, totalMm: 2 }];
     const ctx = ctxFor({ windKmh: tenMetreKmhFor(5), rain });
     const day = sprayDay(ctx, DAY);
-    expect(day.hours).toEqual({ start: '07:00', end: '10:00' });
+    expect(day.hours).toEqual({ start: '08:00', end: '10:00' });
     // A label that is rainfast in 1 h leaves the whole morning and early afternoon.
     const quick = ctxFor({ windKmh: tenMetreKmhFor(5), rain }, { productName: 'Example burndown', rate: { percentSolution: 2 }, rainfastHours: 1 });
-    expect(sprayDay(quick, DAY).hours).toEqual({ start: '07:00', end: '15:00' });
+    expect(sprayDay(quick, DAY).hours).toEqual({ start: '08:00', end: '15:00' });
     // A trace (0.1 mm, under the 0.25 mm measurable line) does not block anything.
-    const trace = ctxFor({ windKmh: tenMetreKmhFor(5), rain: [{ date: DAY, fromHour: 9, hours: 1, totalMm: 0.1 }] });
-    expect(sprayDay(trace, DAY).hours).toEqual({ start: '07:00', end: '19:00' });
+    // (The chance of rain is held low here so only the amount is judged.)
+    const trace = ctxFor({ windKmh: tenMetreKmhFor(5), rain: [{ date: DAY, fromHour: 9, hours: 1, totalMm: 0.1 }], rainProbabilityPct: 10 });
+    expect(sprayDay(trace, DAY).hours).toEqual({ start: '08:00', end: '17:00' });
   });
 
   it('keeps Delta T in the good band, allows the marginal band with care, and avoids above 10 °C', () => {
@@ -92,7 +93,7 @@ describe('spray window', () => {
     const mixed = ctxFor({ airTempC: 25, windKmh: tenMetreKmhFor(5), relativeHumidityPct: ({ hour }) => (hour < 10 ? 20 : hour < 13 ? 35 : 60) });
     const day = sprayDay(mixed, DAY);
     expect(day.level).toBe('good');
-    expect(day.hours).toEqual({ start: '13:00', end: '19:00' });
+    expect(day.hours).toEqual({ start: '13:00', end: '17:00' });
 
     const marginal = sprayDay(ctxFor({ airTempC: 25, windKmh: tenMetreKmhFor(5), relativeHumidityPct: 35 }), DAY);
     expect(marginal.level).toBe('marginal');
@@ -115,7 +116,7 @@ describe('spray window', () => {
     const forecast = makeForecast({ startDate: '2027-09-12', days: 5, airTempC: 20, windKmh: tenMetreKmhFor(5) });
     const fc = indexForecast(forecast, ZONE, { measurableRainMm: 0.25, eventGapHours: 6, soakingRainMm: 6.35, soakingWindowHours: 72 });
     const afterNoon = sprayDay({ fc, latitudeDeg: 38.6, longitudeDeg: -90.2, product: null, params: SPRAY_WINDOW_DEFAULTS, notBeforeMs: localNoon(DAY).getTime() }, DAY);
-    expect(afterNoon.hours).toEqual({ start: '12:00', end: '19:00' });
+    expect(afterNoon.hours).toEqual({ start: '12:00', end: '17:00' });
   });
 
   it('finds the best day: a windy planned spray day moves to the nearest calm one', () => {
@@ -135,7 +136,7 @@ describe('spray window', () => {
     const plan = planPlanting(input, forecast, localNoon('2027-09-06'));
     const spray = step(plan, 'spray');
     expect(spray.date).toBe('2027-09-13');
-    expect(spray.hours).toEqual({ start: '07:00', end: '19:00' });
+    expect(spray.hours).toEqual({ start: '08:00', end: '17:00' });
     expect(step(plan, 'kill-wait').date).toBe('2027-09-27');
     // The rule's own best-day search agrees.
     const fc = indexForecast(forecast, ZONE, { measurableRainMm: 0.25, eventGapHours: 6, soakingRainMm: 6.35, soakingWindowHours: 72 });
