@@ -35,6 +35,7 @@ export function buildPlantingInput(
     herbicide: herbicide
       ? {
           productName: herbicide.productName,
+          ...(herbicide.activeIngredients?.length ? { activeIngredients: herbicide.activeIngredients } : {}),
           activeIngredientPct: herbicide.activeIngredientPct ?? null,
           rate:
             herbicide.rateKind === 'percent-solution'

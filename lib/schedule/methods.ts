@@ -8,7 +8,10 @@
 import type { PlantingInput, StepKind } from './types';
 
 export interface SequenceParams {
+  /** Cutting woody brush with a saw, then spraying what stands: the days between. */
   clearBeforeSprayDays: number;
+  /** Mowing herbaceous cover before a burndown: the days its regrowth needs to reach the label's stage. */
+  mowRegrowthDays: number;
   /** spray-and-seed: planned days from spraying to seeding, and the most allowed. */
   sprayToSeedDays: number;
   maxSprayToSeedDays: number;
@@ -24,7 +27,8 @@ export interface SequenceParams {
 }
 
 export const SEQUENCE_DEFAULTS: SequenceParams = {
-  clearBeforeSprayDays: 7,
+  clearBeforeSprayDays: 1,
+  mowRegrowthDays: 21,
   sprayToSeedDays: 1,
   maxSprayToSeedDays: 2,
   burnBeforeSeedDays: 1,
@@ -38,7 +42,12 @@ export const SEQUENCE_DEFAULTS: SequenceParams = {
 };
 
 export const SEQUENCE_SOURCES: Record<keyof SequenceParams, string> = {
-  clearBeforeSprayDays: 'common practice, no source: cut brush first, then spray what is left and what resprouts',
+  clearBeforeSprayDays:
+    'common practice, no source: cutting woody stems with a saw takes none of the leaves the burndown must wet, so spraying can follow the next day',
+  mowRegrowthDays:
+    'glyphosate labels: weeds that were mowed or cut must regrow to the labeled stage before treatment (' +
+    'from memory: for perennial grasses about 8–12 in of new growth, some three weeks in the growing season); ' +
+    'Purdue on the clethodim (SelectMax) label: do not mow the target grass two weeks before application',
   sprayToSeedDays:
     'common practice, no source: in spray-and-seed the seed goes into the dying cover the same day or within two days; a day after spraying by default',
   maxSprayToSeedDays: 'common practice, no source: within two days, while the cover still stands to shade and mulch the seed',
@@ -57,6 +66,11 @@ export interface StepTemplate {
   key: string;
   kind: StepKind;
   after: string[];
+}
+
+/** Brush is cut with a saw; any other cover that is "cleared" is mowed, and mowed weeds must regrow before a burndown. */
+export function clearingBy(input: PlantingInput): 'chainsaw' | 'mowing' {
+  return input.cover === 'brush' ? 'chainsaw' : 'mowing';
 }
 
 export function clearsBrush(input: PlantingInput): boolean {

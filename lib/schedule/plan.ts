@@ -18,7 +18,7 @@ import {
   shortDay,
 } from './local-dates';
 import { inchesPrecise } from './format';
-import { burns, methodSteps, type StepTemplate } from './methods';
+import { burns, clearingBy, methodSteps, type StepTemplate } from './methods';
 import { resolveParameters, type ScheduleParameters } from './parameters';
 import { burnDay, burnPermitDecision } from './rules/burn-window';
 import { fertilizeBeforeRain } from './rules/fertilize-before-rain';
@@ -26,6 +26,7 @@ import { frostBounds, frostDeadlineOn, type FrostBounds } from './rules/frost-de
 import { frozenGroundOn } from './rules/frozen-ground';
 import { germinationCheck } from './rules/germination-check';
 import { killWaitDecision, killWaitEnd, killWaitRespected } from './rules/kill-wait';
+import { killWaitFromActives, plantBackDecision, plantBackEnd, plantBackFor, plantBackWords, sprayAndSeedConflict, type PlantBack } from './rules/plant-back';
 import { seedBeforeRain } from './rules/seed-before-rain';
 import { soilTemperatureOn } from './rules/soil-temperature';
 import { sprayDay, type SprayContext, type SprayDay } from './rules/spray-window';
@@ -50,6 +51,9 @@ interface Ctx {
   frost: FrostBounds;
   spray: SprayContext | null;
   planWarnings: string[];
+  /** The mix's longest plant-back for the blend, and the kill wait the actives set (when nothing else does). */
+  plantBack: PlantBack | null;
+  killWaitNote: string | null;
 }
 
 /** Where a step goes and why. Its rules are read on the final date by explain(), once every step is placed. */
@@ -68,7 +72,8 @@ interface Placement {
 
 function buildContext(input: PlantingInput, forecast: Forecast | null, today: string, nowMs: number | null, prior: PlanStep[] | null): Ctx {
   assertPlantingInput(input);
-  const params = resolveParameters(input.parameters, input.killWaitDays);
+  const killWait = killWaitFromActives(input);
+  const params = resolveParameters(input.parameters, input.killWaitDays ?? killWait?.days);
   const profile = blendProfile(input.blend);
   const planWarnings: string[] = [];
   let fc: ForecastIndex | null = null;
@@ -103,7 +108,14 @@ function buildContext(input: PlantingInput, forecast: Forecast | null, today: st
       ? { fc, latitudeDeg: input.latitudeDeg, longitudeDeg: input.longitudeDeg, product: input.herbicide, params: params.sprayWindow, notBeforeMs: nowMs, cache: new Map<string, SprayDay>() }
       : null,
     planWarnings,
+    plantBack: plantBackFor(input),
+    killWaitNote: killWait?.note ?? null,
   };
+}
+
+/** spray-and-seed cannot sow into the dying cover when the mix's plant-back is longer than its spray-to-seed gap. */
+function plantBackOutlasts(ctx: Ctx): boolean {
+  return ctx.input.method === 'spray-and-seed' && !!ctx.plantBack && ctx.plantBack.days > ctx.params.sequence.maxSprayToSeedDays;
 }
 
 const has = (ctx: Ctx, key: string) => ctx.templates.has(key);
@@ -296,6 +308,13 @@ function decisionsOn(ctx: Ctx, key: string, kind: StepKind, date: string, after?
     case 'spray':
     case 'spot-spray-grass':
       out.push(ctx.spray && covered ? sprayDay(ctx.spray, date).decision : noForecast('spray-window', 'check wind, rain and temperature against the label on the day'));
+      if (kind === 'spray') {
+        const mowed = clearingBy(ctx.input) === 'mowing' ? effective(ctx, 'clear-brush') : null;
+        const regrowth = params.sequence.mowRegrowthDays;
+        if (mowed && date >= mowed && daysBetween(mowed, date) < regrowth) {
+          out.push({ rule: 'sequence', ok: false, reason: `only ${daysBetween(mowed, date)} days after mowing; mowed weeds need about ${regrowth} days to regrow to the label's stage` });
+        }
+      }
       break;
     case 'kill-wait':
       if (sprayEff) {
@@ -321,15 +340,17 @@ function decisionsOn(ctx: Ctx, key: string, kind: StepKind, date: string, after?
       if (sprayEff && ctx.input.method === 'spray-and-seed') {
         const gap = daysBetween(sprayEff, date);
         const max = params.sequence.maxSprayToSeedDays;
+        const waits = plantBackOutlasts(ctx);
         out.push({
           rule: 'sequence',
-          ok: gap >= 0 && gap <= max,
+          ok: gap >= 0 && (waits || gap <= max),
           reason:
             gap < 0
               ? `before spraying (${shortDay(sprayEff)})`
-              : `${gap === 0 ? 'the day of spraying' : `${gap} day${gap === 1 ? '' : 's'} after spraying`}; spray-and-seed seeds within ${max} days`,
+              : `${gap === 0 ? 'the day of spraying' : `${gap} day${gap === 1 ? '' : 's'} after spraying`}; ${waits ? 'the plant-back sets the gap' : `spray-and-seed seeds within ${max} days`}`,
         });
       }
+      if (sprayEff && ctx.plantBack) out.push(plantBackDecision(sprayEff, ctx.plantBack, date));
       out.push(soilTemperatureOn(fc, date, ctx.profile, params.soilTemperature).decision);
       out.push(fc && covered ? seedBeforeRain(fc, date, params.seedBeforeRain).decision : noForecast('seed-before-rain', 'Sowcast places seeding ahead of rain once the forecast reaches it'));
       out.push(frostDeadlineOn(date, ctx.frost, params.frostDeadline).decision);
@@ -398,7 +419,7 @@ function defaults(ctx: Ctx) {
     target,
     spray,
     burn: addDays(target, -seq.burnBeforeSeedDays),
-    clear: addDays(has(ctx, 'spray') ? spray : target, -seq.clearBeforeSprayDays),
+    clear: addDays(has(ctx, 'spray') ? spray : target, -clearLeadDays(ctx)),
     soilTest: addDays(target, -seq.soilTestLeadDays),
   };
 }
@@ -419,16 +440,29 @@ function placeSoilTest(ctx: Ctx, d: ReturnType<typeof defaults>): void {
   });
 }
 
+/** Days from clearing to spraying: a saw on woody brush holds nothing back; mowing waits for regrowth. */
+function clearLeadDays(ctx: Ctx): number {
+  const seq = ctx.params.sequence;
+  return clearingBy(ctx.input) === 'mowing' && has(ctx, 'spray') ? seq.mowRegrowthDays : seq.clearBeforeSprayDays;
+}
+
 function placeClear(ctx: Ctx, d: ReturnType<typeof defaults>): void {
+  const days = clearLeadDays(ctx);
+  const ahead = `${days} day${days === 1 ? '' : 's'} ahead of the planned ${has(ctx, 'spray') ? 'spraying' : 'seeding'}`;
   place(ctx, 'clear-brush', () => ({
     date: maxDate(ctx.today, anchorOf(ctx, 'clear-brush', d.clear)),
-    reason: `cut brush ${ctx.params.sequence.clearBeforeSprayDays} days ahead of the planned ${has(ctx, 'spray') ? 'spraying' : 'seeding'}`,
+    reason:
+      clearingBy(ctx.input) === 'chainsaw'
+        ? `cut the woody brush ${ahead}; cutting stems takes none of the leaves the spray must wet, so it does not hold the spraying back`
+        : has(ctx, 'spray')
+          ? `mow ${ahead}: mowed weeds must regrow to the label's stage before a systemic burndown moves down to the roots`
+          : `mow ${ahead}`,
   }));
 }
 
 function sprayEarliest(ctx: Ctx): string {
   const clear = effective(ctx, 'clear-brush');
-  return maxDate(ctx.today, clear ? addDays(clear, 1) : null);
+  return maxDate(ctx.today, clear ? addDays(clear, clearLeadDays(ctx)) : null);
 }
 
 function sprayTier(ctx: Ctx, date: string): { tier: number; day: SprayDay | null } | null {
@@ -487,7 +521,7 @@ function placeKillWait(ctx: Ctx): void {
     return {
       date,
       window: { earliest: spray, latest: end },
-      reason: end < ctx.today ? `${decision.reason}; it is over — work the ground when ready` : decision.reason,
+      reason: `${end < ctx.today ? `${decision.reason}; it is over — work the ground when ready` : decision.reason}${ctx.killWaitNote ? ` (${ctx.killWaitNote})` : ''}`,
     };
   });
 }
@@ -726,6 +760,19 @@ function schedule(ctx: Ctx): void {
     placeTied(ctx, 'lime', seed, 'spread with the frost seeding; lime works over months, so sooner is better if you can');
     placeCheck(ctx);
     placeFertilizeAhead(ctx, 'once the stand is up');
+  } else if (input.method === 'spray-and-seed' && plantBackOutlasts(ctx)) {
+    if (has(ctx, 'spray')) placeSprayAlone(ctx, d);
+    const sprayEff = effective(ctx, 'spray');
+    const hardEarliest = maxDate(
+      ctx.today,
+      sprayEff ? plantBackEnd(sprayEff, ctx.plantBack as PlantBack) : null,
+      has(ctx, 'spray') ? null : effective(ctx, 'clear-brush'),
+      has(ctx, 'lime') ? effective(ctx, 'soil-test') : null,
+      fixedEffective(ctx, 'lime'),
+    );
+    placeSeeding(ctx, 'seed', hardEarliest, null, false);
+    notePlantBack(ctx);
+    placeSprayAndSeedRest(ctx);
   } else if (input.method === 'spray-and-seed') {
     const sprayFixed = has(ctx, 'spray') ? fixedPrior(ctx, 'spray') : null;
     if (sprayFixed) keepFixed(ctx, 'spray', sprayFixed);
@@ -738,12 +785,7 @@ function schedule(ctx: Ctx): void {
     const hardLatest = sprayEff ? maxDate(hardEarliest, addDays(sprayEff, ctx.params.sequence.maxSprayToSeedDays)) : null;
     placeSeeding(ctx, 'seed', hardEarliest, hardLatest, has(ctx, 'spray') && !sprayFixed);
     if (has(ctx, 'spray') && !sprayFixed) placeSprayForSeed(ctx);
-    const sprayDate = effective(ctx, 'spray');
-    placeTied(ctx, 'lime', sprayDate ?? (ctx.placed.get('seed') as PlanStep).date, 'spread on the surface with the spraying; lime works over months, so sooner is better if you can');
-    const seed = effective(ctx, 'seed') ?? (ctx.placed.get('seed') as PlanStep).date;
-    placeTied(ctx, 'cover-seed', seed, `right after broadcasting (${shortDay(seed)}), for seed-to-soil contact`);
-    placeCheck(ctx);
-    placeFertilizeAhead(ctx, 'once the stand is up (after the germination check)');
+    placeSprayAndSeedRest(ctx);
   } else {
     if (has(ctx, 'spray')) placeSprayAlone(ctx, d);
     placeKillWait(ctx);
@@ -757,8 +799,10 @@ function schedule(ctx: Ctx): void {
       fixedEffective(ctx, 'rake-till'),
       fixedEffective(ctx, 'lime'),
       has(ctx, 'lime') ? effective(ctx, 'soil-test') : null,
+      effective(ctx, 'spray') && ctx.plantBack ? plantBackEnd(effective(ctx, 'spray') as string, ctx.plantBack) : null,
     );
     placeSeeding(ctx, 'seed', hardEarliest, null, false);
+    notePlantBack(ctx);
     const seedStep = ctx.placed.get('seed') as PlanStep;
     const seed = effective(ctx, 'seed') ?? seedStep.date;
     placeTied(ctx, 'rake-till', seed, `work the ground the day of seeding (${shortDay(seed)}) so the seed meets fresh soil`);
@@ -773,6 +817,34 @@ function schedule(ctx: Ctx): void {
     placeCheck(ctx);
   }
   placeUpkeep(ctx);
+}
+
+/** spray-and-seed after the seeding is placed: lime with the spraying, the seed covered, the stand checked and fed. */
+function placeSprayAndSeedRest(ctx: Ctx): void {
+  const sprayDate = effective(ctx, 'spray');
+  placeTied(ctx, 'lime', sprayDate ?? (ctx.placed.get('seed') as PlanStep).date, 'spread on the surface with the spraying; lime works over months, so sooner is better if you can');
+  const seed = effective(ctx, 'seed') ?? (ctx.placed.get('seed') as PlanStep).date;
+  placeTied(ctx, 'cover-seed', seed, `right after broadcasting (${shortDay(seed)}), for seed-to-soil contact`);
+  placeCheck(ctx);
+  placeFertilizeAhead(ctx, 'once the stand is up (after the germination check)');
+}
+
+/** When the plant-back holds the seeding past its target date, the seeding says so, naming the active and the days. */
+function notePlantBack(ctx: Ctx): void {
+  const pb = ctx.plantBack;
+  const seed = ctx.placed.get('seed');
+  const spray = effective(ctx, 'spray');
+  if (!pb || !seed || !spray || seed.status !== 'planned' || seed.pinned) return;
+  const end = plantBackEnd(spray, pb);
+  const target = ctx.input.targetSeedDate;
+  if (target >= end) return;
+  seed.reason = `held until the plant-back ends ${dayWithMonth(end)}: ${plantBackWords(pb)}; ${seed.reason}`;
+  const moved = seed.date !== target ? `Seeding moved from ${dayWithMonth(target)} to ${dayWithMonth(seed.date)}: ` : '';
+  const warning = plantBackOutlasts(ctx)
+    ? `${moved}${sprayAndSeedConflict(pb, ctx.params.sequence.maxSprayToSeedDays)}`
+    : `${moved}${plantBackWords(pb)}, and spraying is on ${dayWithMonth(spray)}. To keep the seeding date, spray at least ${pb.days} days before it.`;
+  seed.warnings = [...seed.warnings, warning];
+  ctx.planWarnings.push(warning);
 }
 
 /** Belt and braces: no planned step before today or before a step it follows. */
@@ -881,7 +953,7 @@ export function checkStepDate(input: PlantingInput, plan: Plan, stepKey: string,
  * nothing is carried.
  */
 function carrySprayWithSeeding(ctx: Ctx, step: PlanStep, date: string): RuleDecision | null {
-  if (ctx.input.method !== 'spray-and-seed' || step.kind !== 'seed') return null;
+  if (ctx.input.method !== 'spray-and-seed' || step.kind !== 'seed' || plantBackOutlasts(ctx)) return null;
   const spray = ctx.placed.get('spray');
   if (!spray || spray.status !== 'planned' || spray.pinned) return null;
   const seq = ctx.params.sequence;

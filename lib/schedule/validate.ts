@@ -1,10 +1,12 @@
 // Checks a planting before the engine plans it, so bad input gets one clear message per problem instead of a
 // half-made plan. The route's zod schema catches shape errors first; this catches what only the engine knows
 // (unknown species, a product rate larger than the spray volume, dates that do not exist).
+import { HERBICIDE_ACTIVE_IDS, isHerbicideActive } from '@/lib/agronomy/herbicides';
 import { fertilizerAmount, limeAmount, sprayMix } from '@/lib/agronomy/quantities';
 import { blendProfile } from '@/lib/agronomy/species';
 import { FAO56_TABLE_19 } from '@/lib/agronomy/water-balance';
 import { isKnownTimeZone, isLocalDate, isMonthDay } from './local-dates';
+import { standSafetyIssues } from './rules/plant-back';
 import type { PlantingInput } from './types';
 
 export class PlanInputError extends RangeError {
@@ -68,6 +70,7 @@ export function plantingInputIssues(input: PlantingInput): string[] {
       if (v != null && (!isNum(v) || v <= 0)) issues.push(`The ${name} must be more than 0.`);
     }
     if (h.minTempF != null && h.maxTempF != null && h.minTempF >= h.maxTempF) issues.push("The herbicide's lowest temperature must be under its highest.");
+    issues.push(...activeIngredientIssues(input));
   }
   if (input.sprayer) {
     try {
@@ -96,6 +99,23 @@ export function plantingInputIssues(input: PlantingInput): string[] {
     }
   }
   return issues;
+}
+
+/** Herbicide actives: known ids, each once, and none that would kill the existing stand the blend keeps. */
+function activeIngredientIssues(input: PlantingInput): string[] {
+  const ids: unknown = input.herbicide?.activeIngredients;
+  if (ids === undefined) return [];
+  if (!Array.isArray(ids) || ids.some((id) => typeof id !== 'string')) return ['Herbicide actives must be a list of active ingredient ids.'];
+  const unknown = ids.filter((id: string) => !isHerbicideActive(id));
+  if (unknown.length) {
+    return [`Herbicide actives: unknown ${unknown.map((id) => JSON.stringify(id)).join(', ')}; use ${HERBICIDE_ACTIVE_IDS.join(', ')}.`];
+  }
+  if (new Set(ids).size !== ids.length) return ['Herbicide actives: list each active once.'];
+  try {
+    return standSafetyIssues(input);
+  } catch {
+    return []; // the blend's own problem is reported above
+  }
 }
 
 export function assertPlantingInput(input: PlantingInput): void {

@@ -1,4 +1,5 @@
 import { z } from 'zod';
+import { HERBICIDE_ACTIVE_IDS, isHerbicideActive } from '@/lib/agronomy/herbicides';
 import { SPECIES } from '@/lib/agronomy/species';
 import { localDate, optionalLocalDate, optionalNumber, requiredNumber, requiredText } from './common';
 
@@ -33,6 +34,16 @@ export const blendParts = z
 const herbicide = z
   .object({
     productName: requiredText('Herbicide product name', 120),
+    activeIngredients: z
+      .array(
+        z.string({ error: 'Herbicide actives must be ids from the list' }).refine(isHerbicideActive, {
+          message: `Herbicide actives must be from the list: ${HERBICIDE_ACTIVE_IDS.join(', ')}`,
+        }),
+        { error: 'Herbicide actives must be a list' },
+      )
+      .max(HERBICIDE_ACTIVE_IDS.length, 'List each herbicide active once')
+      .refine((ids) => new Set(ids).size === ids.length, 'List each herbicide active once')
+      .optional(),
     activeIngredientPct: optionalNumber('Active ingredient', 0, 100, ' %'),
     rateKind: z.enum(['percent-solution', 'fl-oz-per-acre'], { error: 'Rate must be a percent solution or fl oz per acre' }),
     rate: z.preprocess(
