@@ -144,4 +144,35 @@ describe('spray window', () => {
     expect(best?.date).toBe('2027-09-16');
     expect(bestSprayDay({ fc, latitudeDeg: 38.6, longitudeDeg: -90.2, product: null, params: SPRAY_WINDOW_DEFAULTS }, '2027-09-14', '2027-09-15', '2027-09-14')).toBeNull();
   });
+  it('sprays from an hour after sunrise to two hours before sunset (NDSU Extension AE1876; auxin label language)', () => {
+    expect(SPRAY_WINDOW_DEFAULTS.afterSunriseHours).toBe(1);
+    expect(SPRAY_WINDOW_DEFAULTS.beforeSunsetHours).toBe(2);
+    // NOAA solar equations: sunrise about 06:40 and sunset about 19:10 CDT on 14 Sep at 38.6° N, 90.2° W.
+    const day = sprayDay(ctxFor({ windKmh: tenMetreKmhFor(5) }), DAY);
+    expect(day.hours).toEqual({ start: '08:00', end: '17:00' });
+    // Calm enough only in the first morning hours: those are inversion hours, so no window at all.
+    const early = sprayDay(ctxFor({ windKmh: ({ hour }) => (hour >= 6 && hour < 9 ? tenMetreKmhFor(5) : tenMetreKmhFor(12)) }), DAY);
+    expect(early.level).toBe('none');
+    expect(early.decision.reason).toContain('within 1 h after sunrise or 2 h before sunset (inversion hours)');
+  });
+
+  it('stops for gusts above 15 mph at spray height (dicamba label: not in gusty wind or over 15 mph)', () => {
+    expect(SPRAY_WINDOW_DEFAULTS.gustMaxMph).toBe(15);
+    // Mean wind 5 mph all day; gusts 20 mph at spray height in the morning, 10 mph after 13:00.
+    const gusty = ctxFor({ windKmh: tenMetreKmhFor(5), windGustKmh: ({ hour }) => (hour < 13 ? tenMetreKmhFor(20) : tenMetreKmhFor(10)) });
+    expect(sprayDay(gusty, DAY).hours).toEqual({ start: '13:00', end: '17:00' });
+    const allDay = sprayDay(ctxFor({ windKmh: tenMetreKmhFor(5), windGustKmh: tenMetreKmhFor(20) }), DAY);
+    expect(allDay.level).toBe('none');
+    expect(allDay.decision.reason).toContain('gusts above 15 mph');
+  });
+
+  it('reads the chance of rain in the rainfast period: 30 % asks for care, 60 % stops the spraying (common practice, no source)', () => {
+    const likely = sprayDay(ctxFor({ windKmh: tenMetreKmhFor(5), rainProbabilityPct: 70 }), DAY);
+    expect(likely.level).toBe('none');
+    expect(likely.decision.reason).toContain('a 60 % or higher chance of rain within 6 h after spraying');
+    const chance = sprayDay(ctxFor({ windKmh: tenMetreKmhFor(5), rainProbabilityPct: 40 }), DAY);
+    expect(chance.level).toBe('marginal');
+    expect(chance.decision.reason).toContain('a 30–60 % chance of rain in the rainfast period: watch the radar');
+    expect(sprayDay(ctxFor({ windKmh: tenMetreKmhFor(5), rainProbabilityPct: 10 }), DAY).level).toBe('good');
+  });
 });
