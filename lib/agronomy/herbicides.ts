@@ -94,6 +94,12 @@ function same(days: number, source: string): Record<CropGroup, SourcedDays> {
   return { legumes: { days, source }, soybeans: { days, source }, brassicas: { days, source }, 'small-grains': { days, source }, corn: { days, source }, sorghum: { days, source }, other: { days, source } };
 }
 
+/** 2,4-D labels' fallow plant-backs (Penn State's table); the soybean interval differs by formulation. */
+function twoFourDPlantBack(soybeans: SourcedDays): Record<CropGroup, SourcedDays> {
+  const penn = (days: number) => ({ days, source: PENN_STATE_24D });
+  return { legumes: penn(30), soybeans, brassicas: penn(30), 'small-grains': penn(29), corn: penn(14), sorghum: penn(29), other: penn(30) };
+}
+
 const CATALOG: HerbicideActive[] = [
   {
     id: 'glyphosate',
@@ -119,15 +125,7 @@ const CATALOG: HerbicideActive[] = [
     rainfastSource: `ester formulations are rainfast in about an hour (${MEMORY})`,
     killWaitDays: 7,
     killWaitSource: ILLINOIS_24D_TILL,
-    plantBack: {
-      legumes: { days: 30, source: PENN_STATE_24D },
-      soybeans: { days: 7, source: ISU_24D_SOY },
-      brassicas: { days: 30, source: PENN_STATE_24D },
-      'small-grains': { days: 29, source: PENN_STATE_24D },
-      corn: { days: 14, source: PENN_STATE_24D },
-      sorghum: { days: 29, source: PENN_STATE_24D },
-      other: { days: 30, source: PENN_STATE_24D },
-    },
+    plantBack: twoFourDPlantBack({ days: 7, source: ISU_24D_SOY }),
     safeOverStandsOf: ['small-grains', 'corn', 'sorghum'],
     safeOverSource: AUXIN_GRASS_SAFE,
   },
@@ -141,15 +139,7 @@ const CATALOG: HerbicideActive[] = [
     rainfastSource: `amine formulations need about 6 rain-free hours (${MEMORY})`,
     killWaitDays: 7,
     killWaitSource: ILLINOIS_24D_TILL,
-    plantBack: {
-      legumes: { days: 30, source: PENN_STATE_24D },
-      soybeans: { days: 15, source: `${ISU_24D_SOY}; amine labels carry the longer soybean interval (${MEMORY})` },
-      brassicas: { days: 30, source: PENN_STATE_24D },
-      'small-grains': { days: 29, source: PENN_STATE_24D },
-      corn: { days: 14, source: PENN_STATE_24D },
-      sorghum: { days: 29, source: PENN_STATE_24D },
-      other: { days: 30, source: PENN_STATE_24D },
-    },
+    plantBack: twoFourDPlantBack({ days: 15, source: `${ISU_24D_SOY}; amine labels carry the longer soybean interval (${MEMORY})` }),
     safeOverStandsOf: ['small-grains', 'corn', 'sorghum'],
     safeOverSource: AUXIN_GRASS_SAFE,
   },
