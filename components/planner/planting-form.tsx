@@ -18,6 +18,7 @@ import { plannerKeys } from './keys';
 import { PlanSteps } from './plan-steps';
 import { SavedBlends } from './saved-blends';
 import { FillFromSoilTest } from '@/components/plots/soil-tests';
+import { HerbicideActives } from './herbicide-actives';
 import { SeedingCompare } from './seeding-compare';
 
 type Choice = 'usual' | 'yes' | 'no';
@@ -33,7 +34,7 @@ export interface PlantingFields {
   seedBagLb: number;
   killWaitDays: number;
   useHerbicide: boolean;
-  herbicide: { productName: string; activeIngredientPct: number; rateKind: string; rate: number; rainfastHours: number };
+  herbicide: { productName: string; activeIngredients: string[] | false; activeIngredientPct: number; rateKind: string; rate: number; rainfastHours: number };
   sprayer: { tankGal: number; carrierGalPerAcre: number };
   useFertilizer: boolean;
   fertilizer: { grade: [number, number, number]; target: { n: number; p2o5: number; k2o: number }; bagLb: number };
@@ -68,6 +69,7 @@ export function toPlantingBody(v: PlantingFields): Record<string, unknown> {
     herbicide: sprays
       ? {
           productName: v.herbicide.productName,
+          activeIngredients: Array.isArray(v.herbicide.activeIngredients) && v.herbicide.activeIngredients.length ? v.herbicide.activeIngredients : undefined,
           activeIngredientPct: num(v.herbicide.activeIngredientPct),
           rateKind: v.herbicide.rateKind,
           rate: num(v.herbicide.rate),
@@ -101,13 +103,19 @@ const resolver: Resolver<PlantingFields> = async (values, context, options) => {
 
 const FIELD_NAMES = [
   'season', 'method', 'blend', 'targetSeedDate', 'readyBy', 'soilTexture', 'seedBagLb', 'killWaitDays',
-  'herbicide.productName', 'herbicide.activeIngredientPct', 'herbicide.rateKind', 'herbicide.rate', 'herbicide.rainfastHours',
+  'herbicide.productName', 'herbicide.activeIngredients', 'herbicide.activeIngredients.0', 'herbicide.activeIngredientPct', 'herbicide.rateKind', 'herbicide.rate', 'herbicide.rainfastHours',
   'sprayer', 'sprayer.tankGal', 'sprayer.carrierGalPerAcre',
   'fertilizer.grade', 'fertilizer.grade.0', 'fertilizer.grade.1', 'fertilizer.grade.2', 'fertilizer.target',
   'fertilizer.target.n', 'fertilizer.target.p2o5', 'fertilizer.target.k2o', 'fertilizer.bagLb',
   'lime.tonsPerAcre', 'lime.bagLb',
   ...Array.from({ length: 8 }, (_, i) => [`blend.${i}.speciesId`, `blend.${i}.share`]).flat(),
 ];
+
+/** The actives' error: on the list itself, or on one of its ids. */
+function activesError(error: unknown): string | undefined {
+  const e = error as ({ message?: string } & Record<number, { message?: string } | undefined>) | undefined;
+  return e?.message ?? Object.values(e ?? {}).find((x): x is { message: string } => !!x && typeof x === 'object' && 'message' in x)?.message;
+}
 
 const SOIL_TEXTURE_LABELS: Record<(typeof SOIL_TEXTURES)[number], string> = {
   sand: 'Sand', 'loamy-sand': 'Loamy sand', 'sandy-loam': 'Sandy loam', loam: 'Loam', 'silt-loam': 'Silt loam',
@@ -173,7 +181,7 @@ export function PlantingForm({
       seedBagLb: blank,
       killWaitDays: blank,
       useHerbicide: true,
-      herbicide: { productName: '', activeIngredientPct: blank, rateKind: 'percent-solution', rate: blank, rainfastHours: blank },
+      herbicide: { productName: '', activeIngredients: [], activeIngredientPct: blank, rateKind: 'percent-solution', rate: blank, rainfastHours: blank },
       sprayer: { tankGal: blank, carrierGalPerAcre: blank },
       useFertilizer: false,
       fertilizer: { grade: [blank, blank, blank], target: { n: blank, p2o5: blank, k2o: blank }, bagLb: blank },
@@ -194,6 +202,8 @@ export function PlantingForm({
   const useLime = watch('useLime');
   const burnPlanned = watch('burnPlanned');
   const rateKind = watch('herbicide.rateKind');
+  const activeIds = watch('herbicide.activeIngredients');
+  const blendRows = watch('blend');
   const sprays = method !== 'frost-seeding' && useHerbicide;
 
   const send = (kind: 'preview' | 'save') =>
@@ -327,6 +337,12 @@ export function PlantingForm({
                 <Field label="Product name" htmlFor="herbicide-productName" error={e.herbicide?.productName?.message} hint="As printed on the label.">
                   <Input {...controlAria('herbicide-productName', e.herbicide?.productName?.message, 'hint')} {...register('herbicide.productName')} />
                 </Field>
+                <HerbicideActives
+                  registration={register('herbicide.activeIngredients')}
+                  selected={Array.isArray(activeIds) ? activeIds : []}
+                  blendSpeciesIds={blendRows.map((row) => row.speciesId)}
+                  error={activesError(e.herbicide?.activeIngredients)}
+                />
                 <Field label="Active ingredient (%)" htmlFor="herbicide-ai" optional error={e.herbicide?.activeIngredientPct?.message}>
                   <Input {...numberProps()} {...controlAria('herbicide-ai', e.herbicide?.activeIngredientPct?.message)} {...register('herbicide.activeIngredientPct', { valueAsNumber: true })} />
                 </Field>
@@ -339,10 +355,10 @@ export function PlantingForm({
                 <Field label={rateKind === 'fl-oz-per-acre' ? 'Rate (fl oz per acre)' : 'Rate (% solution)'} htmlFor="herbicide-rate" error={e.herbicide?.rate?.message} hint="The label's rate for this use.">
                   <Input {...numberProps()} {...controlAria('herbicide-rate', e.herbicide?.rate?.message, 'hint')} {...register('herbicide.rate', { valueAsNumber: true })} />
                 </Field>
-                <Field label="Rainfast period (hours)" htmlFor="herbicide-rainfast" optional error={e.herbicide?.rainfastHours?.message} hint="From the label: how long the spray must stay dry.">
+                <Field label="Rainfast period (hours)" htmlFor="herbicide-rainfast" optional error={e.herbicide?.rainfastHours?.message} hint="From the label: how long the spray must stay dry. Empty: the actives' typical period.">
                   <Input {...numberProps()} {...controlAria('herbicide-rainfast', e.herbicide?.rainfastHours?.message, 'hint')} {...register('herbicide.rainfastHours', { valueAsNumber: true })} />
                 </Field>
-                <Field label="Kill wait (days)" htmlFor="killWaitDays" optional error={e.killWaitDays?.message} hint="Days after spraying before the ground is worked; 14 if left empty.">
+                <Field label="Kill wait (days)" htmlFor="killWaitDays" optional error={e.killWaitDays?.message} hint="Days after spraying before the ground is worked. Empty: the actives' typical wait, else 14.">
                   <Input {...numberProps('1')} {...controlAria('killWaitDays', e.killWaitDays?.message, 'hint')} {...register('killWaitDays', { valueAsNumber: true })} />
                 </Field>
                 <Field label="Sprayer tank (gal)" htmlFor="sprayer-tank" error={e.sprayer?.tankGal?.message ?? e.sprayer?.message}>
