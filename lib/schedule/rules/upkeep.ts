@@ -194,7 +194,9 @@ export function upkeepSpecs(o: {
       key: 'upkeep-spot-spray-grass',
       kind: 'spot-spray-grass',
       ...r,
-      reason: `spot-spray invading grass with a grass-selective herbicide in spring and early fall, starting ${dayWithMonth(r.date)}`,
+      reason:
+        `spot-spray invading grass with a grass-selective herbicide (clethodim or sethoxydim, which spare clover and other broadleaf stands; ` +
+        `typical — the label on your jug is the law) in spring and early fall, starting ${dayWithMonth(r.date)}`,
       decision: { rule: 'upkeep', ok: true, reason: UPKEEP_SOURCES.grassSprayMonths },
     });
   }

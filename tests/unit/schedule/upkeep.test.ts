@@ -66,5 +66,7 @@ describe('upkeep', () => {
     const spot = step(planPlanting(clover, null, NOW), 'upkeep-spot-spray-grass');
     expect(spot.cautions.map((c) => c.text).join(' ')).toContain('label is the law');
     expect(spot.recurrence).toContain('FREQ=YEARLY;BYMONTH=4,9;BYDAY=+2SA');
+    // Select 2 EC label: clethodim controls grasses, not broadleaf plants — so it goes over a clover stand.
+    expect(spot.reason).toContain('clethodim or sethoxydim, which spare clover');
   });
 });
