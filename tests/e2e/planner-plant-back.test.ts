@@ -65,7 +65,7 @@ describe('the planner with a 2,4-D ester burndown before clover', () => {
 
     // The form shows what the actives mean for this blend, and that the label governs.
     const meaning = page.getByRole('list', { name: 'What the actives mean for this blend' });
-    await expect.poll(() => meaning.textContent()).toContain('clovers and other legumes: 30 days');
+    await expect.poll(() => meaning.textContent(), { timeout: 20_000 }).toContain('clovers and other legumes: 30 days');
     expect(await page.getByText(/the label on your jug is the law/).count()).toBeGreaterThan(0);
     await screenshot(page, 'planner-plant-back-form-desktop');
 
@@ -75,9 +75,10 @@ describe('the planner with a 2,4-D ester burndown before clover', () => {
     // Spraying 7 days before the target (the ester's kill wait), seeding 30 days after the spraying.
     const sprayDate = new Date(Date.parse(`${seedDate}T12:00:00Z`) - 7 * 86_400_000).toISOString().slice(0, 10);
     const seedingDate = new Date(Date.parse(`${sprayDate}T12:00:00Z`) + 30 * 86_400_000).toISOString().slice(0, 10);
-    await expect.poll(() => preview.getByText(/held until the plant-back ends/).count()).toBeGreaterThan(0);
+    // The planner shows each reason as a sentence, so it starts with a capital.
+    await expect.poll(() => preview.getByText(/Held until the plant-back ends/).count(), { timeout: 30_000 }).toBeGreaterThan(0);
     const text = (await preview.textContent()) ?? '';
-    expect(text).toContain(`held until the plant-back ends ${dayWithMonth(seedingDate)}`);
+    expect(text).toContain(`Held until the plant-back ends ${dayWithMonth(seedingDate)}`);
     expect(text).toContain('2,4-D ester typically needs 30 days between spraying and sowing clovers and other legumes');
     expect(text).toContain(`Seeding moved from ${dayWithMonth(seedDate)} to ${dayWithMonth(seedingDate)}`);
     const cautions = (await preview.locator('section[aria-label="Cautions"]').first().textContent()) ?? '';
@@ -92,5 +93,5 @@ describe('the planner with a 2,4-D ester burndown before clover', () => {
     await screenshot(page, 'planner-plant-back-preview-phone');
     await preview.screenshot({ path: `${process.env.TEST_ARTIFACTS_DIR ?? '.test-artifacts'}/planner-plant-back-preview-section-phone.png` });
     await context.close();
-  });
+  }, 240_000);
 });
