@@ -48,3 +48,13 @@ export async function loadDemoData() {
     await db.destroy();
   }
 }
+
+/** Opens a demo plot from the properties list: the property's page, then the plot's. */
+export async function openPlot(page: Page, propertyName: RegExp, plotName: string) {
+  await page.goto(`${baseUrl()}/properties`);
+  await page.getByRole('link', { name: propertyName }).first().click();
+  await page.waitForURL(/\/properties\/[0-9a-f-]{36}$/);
+  await page.getByRole('link', { name: plotName, exact: true }).click();
+  await page.waitForURL(/\/plots\/[0-9a-f-]{36}$/);
+  await page.getByRole('heading', { name: plotName, level: 1 }).waitFor();
+}

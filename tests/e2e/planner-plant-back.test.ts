@@ -4,9 +4,10 @@
 // other than corn, soybeans, sorghum and small grains (clover among them). Illinois IPM Bulletin (2012): no
 // tillage for 7 days after a 2,4-D ester, so the kill wait is 7 days when none is entered.
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import type { Browser, Page } from 'playwright-core';
+import type { Browser } from 'playwright-core';
 import demoUsers from '@/db/demo-users.json';
-import { baseUrl, DESKTOP, launchBrowser, loadDemoData, PHONE, screenshot, signIn } from './browser';
+import { intlDay } from '../unit/schedule/plantings';
+import { DESKTOP, launchBrowser, loadDemoData, openPlot, PHONE, screenshot, signIn } from './browser';
 
 let browser: Browser;
 
@@ -21,33 +22,19 @@ afterAll(async () => {
 
 const manager = demoUsers.users.find((u) => u.role === 'manager')!;
 
-async function openCreeksideStrip(page: Page) {
-  await page.goto(`${baseUrl()}/properties`);
-  await page.getByRole('link', { name: /Foxglove Hollow Lease/ }).first().click();
-  await page.waitForURL(/\/properties\/[0-9a-f-]{36}$/);
-  await page.getByRole('link', { name: 'Creekside strip', exact: true }).click();
-  await page.waitForURL(/\/plots\/[0-9a-f-]{36}$/);
-  await page.getByRole('heading', { name: 'Creekside strip', level: 1 }).waitFor();
-}
-
 const now = new Date();
 const year = now.getUTCFullYear() + 1;
 const seedDate = `${year}-04-15`;
 
 /** "Sat 8 May", as the engine writes a day with its month (weekday from Intl, ECMA-402). */
-function dayWithMonth(date: string): string {
-  const d = new Date(`${date}T12:00:00Z`);
-  const weekday = new Intl.DateTimeFormat('en-US', { weekday: 'short', timeZone: 'UTC' }).format(d);
-  const month = new Intl.DateTimeFormat('en-US', { month: 'short', timeZone: 'UTC' }).format(d);
-  return `${weekday} ${d.getUTCDate()} ${month}`;
-}
+const dayWithMonth = (date: string) => intlDay(date, true);
 
 describe('the planner with a 2,4-D ester burndown before clover', () => {
   it('shows the plant-back and the moved seeding, with the herbicide cautions', async () => {
     const context = await browser.newContext({ viewport: DESKTOP });
     const page = await context.newPage();
     await signIn(page, manager.email, manager.password);
-    await openCreeksideStrip(page);
+    await openPlot(page, /Foxglove Hollow Lease/, 'Creekside strip');
 
     await page.getByLabel('Season', { exact: true }).selectOption('spring');
     await page.getByLabel('Method', { exact: true }).selectOption('prepared-seedbed');

@@ -1,7 +1,7 @@
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import type { Browser, Page } from 'playwright-core';
 import demoUsers from '@/db/demo-users.json';
-import { baseUrl, DESKTOP, launchBrowser, PHONE, screenshot, signIn, loadDemoData } from './browser';
+import { DESKTOP, launchBrowser, openPlot, PHONE, screenshot, signIn, loadDemoData } from './browser';
 
 let browser: Browser;
 
@@ -16,14 +16,7 @@ afterAll(async () => {
 
 const user = (role: string) => demoUsers.users.find((u) => u.role === role)!;
 
-async function openCreeksideStrip(page: Page) {
-  await page.goto(`${baseUrl()}/properties`);
-  await page.getByRole('link', { name: /Foxglove Hollow Lease/ }).first().click();
-  await page.waitForURL(/\/properties\/[0-9a-f-]{36}$/);
-  await page.getByRole('link', { name: 'Creekside strip', exact: true }).click();
-  await page.waitForURL(/\/plots\/[0-9a-f-]{36}$/);
-  await page.getByRole('heading', { name: 'Creekside strip', level: 1 }).waitFor();
-}
+const openCreeksideStrip = (page: Page) => openPlot(page, /Foxglove Hollow Lease/, 'Creekside strip');
 
 // A spring seeding comfortably ahead of whatever "today" the run has.
 const now = new Date();
