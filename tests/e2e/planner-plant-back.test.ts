@@ -55,6 +55,8 @@ describe('the planner with a 2,4-D ester burndown before clover', () => {
     await expect.poll(() => meaning.textContent(), { timeout: 20_000 }).toContain('clovers and other legumes: 30 days');
     expect(await page.getByText(/the label on your jug is the law/).count()).toBeGreaterThan(0);
     await screenshot(page, 'planner-plant-back-form-desktop');
+    const shot = (name: string) => `${process.env.TEST_ARTIFACTS_DIR ?? '.test-artifacts'}/${name}.png`;
+    await page.locator('fieldset', { has: page.getByRole('checkbox', { name: 'glyphosate', exact: true }) }).last().screenshot({ path: shot('planner-plant-back-actives-desktop') });
 
     await page.getByRole('button', { name: 'Preview' }).click();
     const preview = page.locator('section[aria-labelledby="preview-heading"]');
@@ -73,12 +75,12 @@ describe('the planner with a 2,4-D ester burndown before clover', () => {
     expect(cautions).toMatch(/protective equipment/i);
     expect(cautions).toMatch(/drift/i);
     await screenshot(page, 'planner-plant-back-preview-desktop');
-    await preview.screenshot({ path: `${process.env.TEST_ARTIFACTS_DIR ?? '.test-artifacts'}/planner-plant-back-preview-section-desktop.png` });
+    await preview.screenshot({ path: shot('planner-plant-back-preview-section-desktop') });
 
     await page.setViewportSize(PHONE);
     await preview.scrollIntoViewIfNeeded();
     await screenshot(page, 'planner-plant-back-preview-phone');
-    await preview.screenshot({ path: `${process.env.TEST_ARTIFACTS_DIR ?? '.test-artifacts'}/planner-plant-back-preview-section-phone.png` });
+    await preview.screenshot({ path: shot('planner-plant-back-preview-section-phone') });
     await context.close();
   }, 240_000);
 });

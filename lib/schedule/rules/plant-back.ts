@@ -62,7 +62,7 @@ export function killWaitFromActives(input: PlantingInput): { days: number; note:
   const ids = input.herbicide?.activeIngredients ?? [];
   const wait = ids.length ? mixKillWait(ids) : null;
   if (!wait) return null;
-  return { days: wait.days, note: `${wait.days} days is typical for ${wait.active.name} before working or burning the ground (${LABEL_IS_THE_LAW})` };
+  return { days: wait.days, note: `${wait.days} days is typical for ${wait.active.name} before working or burning the ground — ${LABEL_IS_THE_LAW}` };
 }
 
 /**
