@@ -41,11 +41,19 @@ export interface SeedingOption {
    */
   moisture: { fromDate: string; throughDate: string; days: number; moistDays: number; firstDryDate: string | null } | null;
   /**
-   * Frost margin in days. Fall: days from seeding to the latest safe date (the average first fall frost less the
-   * blend's needed weeks) — negative when past it. Spring, frost-tender blend: days after the earliest safe date
-   * (the average last frost plus the margin). null when it does not apply or no frost date is recorded.
+   * Frost margin in days, whichever binds. Fall: days from seeding to the blend's latest date (each species' killing
+   * freeze less the growing days it needs, lib/schedule/rules/frost-deadline.ts) — negative when past it; checked for
+   * every season. Spring, frost-tender blend: days after the earliest safe date (the average last frost plus the
+   * margin). null when it does not apply or no frost date is recorded. weeksNeeded is growingDaysNeeded in whole weeks.
    */
-  frost: { marginDays: number | null; limitDate: string | null; frostDate: string | null; weeksNeeded: number; note: string };
+  frost: {
+    marginDays: number | null;
+    limitDate: string | null;
+    frostDate: string | null;
+    weeksNeeded: number;
+    growingDaysNeeded: number;
+    note: string;
+  };
   planWarnings: string[];
 }
 
@@ -116,21 +124,31 @@ export function compareSeedingDates(o: {
     }
 
     const bounds = frostBounds(input, profile, params.frostDeadline);
+    const growingDaysNeeded = bounds.growingDaysNeeded;
+    const weeksNeeded = Math.ceil(growingDaysNeeded / 7);
+    const fallMargin = bounds.fallLatest ? daysBetween(seedDate, bounds.fallLatest) : null;
+    const springMargin = bounds.springEarliest ? daysBetween(bounds.springEarliest, seedDate) : null;
     let frost: SeedingOption['frost'];
-    if (bounds.fallLatest) {
+    // The margin that binds: a tender spring blend can be too early for the last frost or too late for the first.
+    if (fallMargin !== null && (springMargin === null || fallMargin <= springMargin)) {
+      const s = bounds.limiting;
       frost = {
-        marginDays: daysBetween(seedDate, bounds.fallLatest),
+        marginDays: fallMargin,
         limitDate: bounds.fallLatest,
         frostDate: bounds.firstFallFrost,
-        weeksNeeded: bounds.weeksNeeded,
-        note: `days to spare before ${bounds.fallLatest}, the latest date: ${bounds.weeksNeeded} weeks before the average first fall frost`,
+        weeksNeeded,
+        growingDaysNeeded,
+        note: `days to spare before ${bounds.fallLatest}, the latest date: ${s.name} ${s.needs} about ${growingDaysNeeded} days of growth before ${
+          s.killedBy === 'freeze' ? 'the average first fall frost' : `a hard freeze (${bounds.firstHardFreeze})`
+        }`,
       };
-    } else if (bounds.springEarliest) {
+    } else if (springMargin !== null) {
       frost = {
-        marginDays: daysBetween(bounds.springEarliest, seedDate),
+        marginDays: springMargin,
         limitDate: bounds.springEarliest,
         frostDate: bounds.lastSpringFrost,
-        weeksNeeded: bounds.weeksNeeded,
+        weeksNeeded,
+        growingDaysNeeded,
         note: `days after ${bounds.springEarliest}, the earliest safe date for frost-tender seed`,
       };
     } else {
@@ -138,14 +156,15 @@ export function compareSeedingDates(o: {
         marginDays: null,
         limitDate: null,
         frostDate: bounds.season === 'fall' ? bounds.firstFallFrost : bounds.lastSpringFrost,
-        weeksNeeded: bounds.weeksNeeded,
+        weeksNeeded,
+        growingDaysNeeded,
         note: !bounds.applies
           ? 'frost seeding goes on in late winter; no frost deadline'
           : bounds.season === 'fall'
             ? 'no average first fall frost recorded for the property'
             : bounds.frostTender
               ? 'no average last spring frost recorded for the property'
-              : 'no frost-tender species in the blend',
+              : 'no average first fall frost recorded for the property',
       };
     }
 

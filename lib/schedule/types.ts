@@ -64,6 +64,8 @@ export interface PlantingInput {
   elevationM: number;
   avgLastSpringFrost: string | null; // 'MM-DD'
   avgFirstFallFrost: string | null; // 'MM-DD'
+  /** 'MM-DD': the average first 28 °F night (NWS hard freeze); absent → the first frost plus FROST_DEADLINE_DEFAULTS' estimate. */
+  avgFirstHardFreeze?: string | null;
   acres: number;
   cover: 'grass-weeds' | 'brush' | 'bare-soil' | 'tilled' | 'existing-stand';
   soilTexture?: SoilTexture; // default 'loam'

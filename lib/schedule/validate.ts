@@ -47,6 +47,7 @@ export function plantingInputIssues(input: PlantingInput): string[] {
   for (const [name, value] of [
     ['average last spring frost', input.avgLastSpringFrost],
     ['average first fall frost', input.avgFirstFallFrost],
+    ['average first hard freeze', input.avgFirstHardFreeze],
   ] as const) {
     if (value != null && !isMonthDay(value)) issues.push(`The ${name} ${JSON.stringify(value)} is not a month and day (MM-DD).`);
   }

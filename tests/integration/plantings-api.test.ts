@@ -96,11 +96,13 @@ describe('plantings', () => {
 describe('POST /api/plots/[plotId]/plan/compare', () => {
   it('judges each seeding date with the engine: frost margin, emergence, rules', async () => {
     const before = await plantingCount();
-    const res = await member.client.post(`/api/plots/${plotId}/plan/compare`, { planting: BODY, seedDates: ['2027-08-20', '2027-09-01'] });
+    const res = await member.client.post(`/api/plots/${plotId}/plan/compare`, { planting: BODY, seedDates: ['2027-08-20', '2027-09-15'] });
     expect(res.status, res.text).toBe(200);
     const [early, late] = res.body.options;
-    // By hand: 2027-08-25 − 2027-08-20 = 5 days to spare; 2027-09-01 is 7 days past it.
-    expect(early.frost).toMatchObject({ limitDate: '2027-08-25', frostDate: '2027-10-20', weeksNeeded: 8, marginDays: 5 });
+    // White clover needs about 56 days before a hard freeze (lib/agronomy/growing-days.ts), estimated as the first
+    // frost + 14 days (FROST_DEADLINE_SOURCES). By hand: 2027-10-20 + 14 − 56 = 2027-09-08, 19 days after 2027-08-20;
+    // 2027-09-15 is 7 days past it. (Before issue 11 the limit was a fixed 8 weeks before the first frost, 25 Aug.)
+    expect(early.frost).toMatchObject({ limitDate: '2027-09-08', frostDate: '2027-10-20', growingDaysNeeded: 56, weeksNeeded: 8, marginDays: 19 });
     expect(late.frost.marginDays).toBe(-7);
     expect(early.decisions.find((d: { rule: string }) => d.rule === 'frost-deadline').ok).toBe(true);
     expect(late.decisions.find((d: { rule: string }) => d.rule === 'frost-deadline').ok).toBe(false);

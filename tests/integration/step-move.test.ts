@@ -1,8 +1,10 @@
 // POST /api/steps/[stepId]/move and PATCH /api/steps/[stepId] over real HTTP: who may move what (managers any step,
 // members only their own, viewers none), the engine's reasons for a bad day (409, nothing changed), a manager's
 // confirmation (pinned, with history), and done steps that stay put. "Today" is the property's local date,
-// read through Intl's IANA zone data. The 8 weeks white clover needs before the average first fall frost is
-// the species catalog's sourced value (lib/agronomy/species.ts); 2027-10-20 − 56 days = 2027-08-25, by hand.
+// read through Intl's IANA zone data. White clover needs about 56 days of growth before a hard freeze
+// (lib/agronomy/growing-days.ts); with no hard freeze recorded it is the first frost + 14 days
+// (FROST_DEADLINE_SOURCES): 2027-10-20 + 14 = 2027-11-03, − 56 days = 2027-09-08, by hand. (The old rule counted
+// 8 weeks back from the first frost, 25 Aug; issue 11 replaced fixed weeks with growing days before the killing freeze.)
 import { randomInt } from 'node:crypto';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { storeForecast } from '@/lib/data/forecasts';
@@ -109,7 +111,7 @@ describe('POST /api/steps/[stepId]/move', () => {
     const refused = await member.client.post(`/api/steps/${seed.id}/move`, { date: '2027-09-20', confirm: true });
     expect(refused.status, refused.text).toBe(409);
     expect(refused.body.canConfirm).toBe(false);
-    expect(refused.body.reasons.some((r: string) => /past the fall deadline/.test(r) && /25 Aug/.test(r))).toBe(true);
+    expect(refused.body.reasons.some((r: string) => /past the fall deadline/.test(r) && /Wed 8 Sep/.test(r))).toBe(true);
     const asked = await manager.client.post(`/api/steps/${seed.id}/move`, { date: '2027-09-20' });
     expect([asked.status, asked.body.canConfirm]).toEqual([409, true]);
     expect(await stepRow(seed.id)).toEqual(before);
