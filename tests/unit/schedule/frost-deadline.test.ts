@@ -19,6 +19,7 @@ import {
   frostDeadlineOn,
 } from '@/lib/schedule/rules/frost-deadline';
 import type { PlantingInput, RuleDecision } from '@/lib/schedule/types';
+import { PlanInputError } from '@/lib/schedule/validate';
 import { localNoon, makeForecast } from './forecast-fixture';
 import { intlDay, planting, step } from './plantings';
 
@@ -99,6 +100,17 @@ describe('frost deadline: hardy fall plantings count to the hard freeze', () => 
       firstHardFreeze: '2028-01-08',
       hardFreezeEstimated: false,
     });
+  });
+
+  it('refuses a hard-freeze date that is not a month and day, naming the field', () => {
+    let error: unknown;
+    try {
+      planPlanting(planting({ avgFirstHardFreeze: '12-32' }), null, localNoon('2027-08-20'));
+    } catch (e) {
+      error = e;
+    }
+    expect(error).toBeInstanceOf(PlanInputError);
+    expect((error as PlanInputError).issues.join(' | ')).toContain('The average first hard freeze "12-32" is not a month and day (MM-DD).');
   });
 
   it('white clover seeded two weeks before the average first frost fails: it needs about 8 weeks', () => {
