@@ -178,8 +178,8 @@ describe('frost deadline: north Florida crimson clover inside the UF/IFAS window
   const northFlorida = (overrides: Partial<PlantingInput>) =>
     planting({
       timeZone: 'America/New_York',
-      latitudeDeg: 29.7,
-      longitudeDeg: -82.3,
+      latitudeDeg: 30,
+      longitudeDeg: -83,
       avgLastSpringFrost: '02-20',
       blend: [{ speciesId: 'crimson-clover', share: 1 }],
       targetSeedDate: '2027-11-01',
