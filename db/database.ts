@@ -36,6 +36,7 @@ export interface PropertiesTable {
   elevation_m: ColumnType<number, number | undefined, number>;
   avg_last_spring_frost: string | null;
   avg_first_fall_frost: string | null;
+  avg_first_hard_freeze: ColumnType<string | null, string | null | undefined, string | null>;
   season_opens_on: LocalDate | null;
   tenure: ColumnType<LandTenure, LandTenure | undefined, LandTenure>;
   landowner_name: string | null;

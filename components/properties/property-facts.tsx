@@ -38,6 +38,9 @@ export function PropertyFacts({ property }: { property: PropertyDto }) {
       <Fact icon={<Snowflake className={`${iconClass} text-frost`} aria-hidden="true" />} label="Average first fall frost">
         {property.avgFirstFallFrost ? <span className="tabular">{formatMonthDay(property.avgFirstFallFrost)}</span> : notSet}
       </Fact>
+      <Fact icon={<Snowflake className={`${iconClass} text-frost`} aria-hidden="true" />} label="Average first hard freeze (28 °F)">
+        {property.avgFirstHardFreeze ? <span className="tabular">{formatMonthDay(property.avgFirstHardFreeze)}</span> : notSet}
+      </Fact>
       <Fact icon={<CalendarDays className={iconClass} aria-hidden="true" />} label="Season opens">
         {property.seasonOpensOn ? <span className="tabular">{formatLocalDate(property.seasonOpensOn)}</span> : notSet}
       </Fact>

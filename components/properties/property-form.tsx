@@ -26,6 +26,7 @@ export type PropertyFields = {
   elevationM: number;
   avgLastSpringFrost: string;
   avgFirstFallFrost: string;
+  avgFirstHardFreeze: string;
   seasonOpensOn: string;
   tenure: (typeof TENURES)[number];
   landownerName: string;
@@ -35,8 +36,14 @@ export type PropertyFields = {
 
 const FIELD_NAMES = [
   'name', 'latitude', 'longitude', 'timeZone', 'elevationM', 'avgLastSpringFrost', 'avgFirstFallFrost',
-  'seasonOpensOn', 'tenure', 'landownerName', 'landownerContact', 'permissionGrantedOn',
+  'avgFirstHardFreeze', 'seasonOpensOn', 'tenure', 'landownerName', 'landownerContact', 'permissionGrantedOn',
 ] as const satisfies readonly (keyof PropertyFields)[];
+
+const FROST_DATE_FIELDS = [
+  { name: 'avgLastSpringFrost', id: 'property-last-spring-frost', legend: 'Average last spring frost' },
+  { name: 'avgFirstFallFrost', id: 'property-first-fall-frost', legend: 'Average first fall frost' },
+  { name: 'avgFirstHardFreeze', id: 'property-first-hard-freeze', legend: 'Average first hard freeze (28 °F)' },
+] as const satisfies readonly { name: keyof PropertyFields; id: string; legend: string }[];
 
 const TENURE_HINTS: Record<PropertyFields['tenure'], string> = {
   owned: 'You or your club own the ground.',
@@ -56,6 +63,7 @@ function initialValues(property?: PropertyDto): PropertyFields {
     elevationM: property?.elevationM ?? blankNumber,
     avgLastSpringFrost: property?.avgLastSpringFrost ?? '',
     avgFirstFallFrost: property?.avgFirstFallFrost ?? '',
+    avgFirstHardFreeze: property?.avgFirstHardFreeze ?? '',
     seasonOpensOn: property?.seasonOpensOn ?? '',
     tenure: property?.tenure ?? 'owned',
     landownerName: property?.landownerName ?? '',
@@ -206,37 +214,20 @@ export function PropertyForm({ timeZones, property }: { timeZones: string[]; pro
       <Card>
         <h2 className="text-lg font-semibold">The season</h2>
         <p className="mb-4 mt-0.5 text-sm text-loam-soft">
-          Average frost dates for the area help place cool-season and warm-season plantings.
+          Average frost dates for the area help place cool-season and warm-season plantings. Hardy species survive a light
+          frost, so the first hard freeze (28 °F) sets their fall deadline; left empty, Sowcast takes two weeks after the first frost.
         </p>
         <div className="grid gap-5 sm:grid-cols-2">
-          <Controller
-            control={control}
-            name="avgLastSpringFrost"
-            render={({ field }) => (
-              <MonthDaySelect
-                id="property-last-spring-frost"
-                legend="Average last spring frost"
-                value={field.value}
-                onChange={field.onChange}
-                onBlur={field.onBlur}
-                error={e('avgLastSpringFrost')}
-              />
-            )}
-          />
-          <Controller
-            control={control}
-            name="avgFirstFallFrost"
-            render={({ field }) => (
-              <MonthDaySelect
-                id="property-first-fall-frost"
-                legend="Average first fall frost"
-                value={field.value}
-                onChange={field.onChange}
-                onBlur={field.onBlur}
-                error={e('avgFirstFallFrost')}
-              />
-            )}
-          />
+          {FROST_DATE_FIELDS.map(({ name, id, legend }) => (
+            <Controller
+              key={name}
+              control={control}
+              name={name}
+              render={({ field }) => (
+                <MonthDaySelect id={id} legend={legend} value={field.value} onChange={field.onChange} onBlur={field.onBlur} error={e(name)} />
+              )}
+            />
+          ))}
           <Field label="Season opens on" htmlFor="property-season-opens" error={e('seasonOpensOn')} optional hint="The day plots should be ready, e.g. the opening of the season you hunt.">
             <Input {...controlAria('property-season-opens', e('seasonOpensOn'), true)} className="tabular" type="date" {...register('seasonOpensOn')} />
           </Field>

@@ -12,6 +12,7 @@ export interface PropertyDto {
   elevationM: number;
   avgLastSpringFrost: string | null;
   avgFirstFallFrost: string | null;
+  avgFirstHardFreeze: string | null;
   seasonOpensOn: string | null;
   tenure: Property['tenure'];
   landownerName: string | null;
@@ -31,6 +32,7 @@ export function toPropertyDto(row: Property): PropertyDto {
     elevationM: row.elevation_m,
     avgLastSpringFrost: row.avg_last_spring_frost,
     avgFirstFallFrost: row.avg_first_fall_frost,
+    avgFirstHardFreeze: row.avg_first_hard_freeze,
     seasonOpensOn: row.season_opens_on,
     tenure: row.tenure,
     landownerName: row.landowner_name,
@@ -49,6 +51,7 @@ const COLUMN_OF = {
   elevationM: 'elevation_m',
   avgLastSpringFrost: 'avg_last_spring_frost',
   avgFirstFallFrost: 'avg_first_fall_frost',
+  avgFirstHardFreeze: 'avg_first_hard_freeze',
   seasonOpensOn: 'season_opens_on',
   tenure: 'tenure',
   landownerName: 'landowner_name',

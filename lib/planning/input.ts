@@ -7,7 +7,8 @@ import type { PlantingFormInput } from '@/lib/validations/planting';
  * property and plot as they are now — so an edited acreage or frost date reaches the next replan.
  */
 export function buildPlantingInput(
-  property: Pick<Property, 'time_zone' | 'latitude' | 'longitude' | 'elevation_m' | 'avg_last_spring_frost' | 'avg_first_fall_frost'>,
+  property: Pick<Property, 'time_zone' | 'latitude' | 'longitude' | 'elevation_m' | 'avg_last_spring_frost' | 'avg_first_fall_frost'> &
+    Partial<Pick<Property, 'avg_first_hard_freeze'>>,
   plot: Pick<Plot, 'acres' | 'cover'>,
   form: PlantingFormInput,
 ): PlantingInput {
@@ -19,6 +20,7 @@ export function buildPlantingInput(
     elevationM: property.elevation_m,
     avgLastSpringFrost: property.avg_last_spring_frost,
     avgFirstFallFrost: property.avg_first_fall_frost,
+    avgFirstHardFreeze: property.avg_first_hard_freeze ?? null,
     acres: plot.acres,
     cover: plot.cover,
     soilTexture: form.soilTexture,

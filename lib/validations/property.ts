@@ -52,6 +52,7 @@ export const propertySchema = z.object({
   elevationM: requiredNumber('Elevation', -500, 9000, ' m'),
   avgLastSpringFrost: optionalMonthDay('Average last spring frost'),
   avgFirstFallFrost: optionalMonthDay('Average first fall frost'),
+  avgFirstHardFreeze: optionalMonthDay('Average first hard freeze'),
   seasonOpensOn: optionalLocalDate('Season opening date'),
   tenure: z.enum(TENURES, { error: 'Tenure must be owned, leased or permission' }),
   landownerName: optionalText('Landowner name', 120),

@@ -11,6 +11,7 @@ type Person = { user: TestUser; client: Client };
 const db = testDb();
 let owner: Person, member: Person;
 let plotId: string;
+let property: { id: string };
 
 const BODY = {
   season: 'fall',
@@ -27,7 +28,7 @@ const plantingCount = async () =>
 beforeAll(async () => {
   owner = await signedInUser('plantings-owner');
   member = await signedInUser('plantings-member');
-  const property = await createProperty(owner.client, {
+  property = await createProperty(owner.client, {
     // A grid cell of its own, so no other test's stored forecast reaches this property.
     latitude: 40 + randomInt(0, 800) / 100,
     longitude: -(100 + randomInt(0, 2000) / 100),
@@ -107,6 +108,13 @@ describe('POST /api/plots/[plotId]/plan/compare', () => {
     expect(early.decisions.find((d: { rule: string }) => d.rule === 'frost-deadline').ok).toBe(true);
     expect(late.decisions.find((d: { rule: string }) => d.rule === 'frost-deadline').ok).toBe(false);
     expect([early.ok, late.ok]).toEqual([true, false]);
+
+    // With the property's own hard-freeze date, hardy white clover counts to it instead of the estimate:
+    // 2027-11-24 − 56 days = 2027-09-29, so 2027-09-15 now has 14 days to spare, by hand.
+    expect((await owner.client.patch(`/api/properties/${property.id}`, { avgFirstHardFreeze: '11-24' })).status).toBe(200);
+    const recorded = await member.client.post(`/api/plots/${plotId}/plan/compare`, { planting: BODY, seedDates: ['2027-09-15'] });
+    expect(recorded.body.options[0].frost).toMatchObject({ limitDate: '2027-09-29', marginDays: 14 });
+    expect((await owner.client.patch(`/api/properties/${property.id}`, { avgFirstHardFreeze: '' })).status).toBe(200);
     for (const o of res.body.options) {
       expect(o.germination.daysToEmergence).toBeGreaterThan(0);
       expect(o.germination.emergenceDate > o.seedDate).toBe(true);

@@ -48,6 +48,7 @@ const PROPERTY_POST: BadInput[] = [
   { why: "frost '00-10'", body: { avgFirstFallFrost: '00-10' }, field: 'avgFirstFallFrost', label: 'Average first fall frost' },
   { why: "frost '11-31' (November has 30 days)", body: { avgFirstFallFrost: '11-31' }, field: 'avgFirstFallFrost', label: 'Average first fall frost' },
   { why: "frost '4-15'", body: { avgFirstFallFrost: '4-15' }, field: 'avgFirstFallFrost', label: 'Average first fall frost' },
+  { why: "hard freeze '12-32'", body: { avgFirstHardFreeze: '12-32' }, field: 'avgFirstHardFreeze', label: 'Average first hard freeze' },
   // ISO 8601 calendar dates, YYYY-MM-DD; 2025 is not a leap year (not divisible by 4).
   { why: "season date '2026-02-30'", body: { seasonOpensOn: '2026-02-30' }, field: 'seasonOpensOn', label: 'Season opening date' },
   { why: "season date '2026-13-01'", body: { seasonOpensOn: '2026-13-01' }, field: 'seasonOpensOn', label: 'Season opening date' },

@@ -59,6 +59,7 @@ describe('propertySchema', () => {
     ['avgLastSpringFrost', { avgLastSpringFrost: '13-01' }, 'avgLastSpringFrost', 'Average last spring frost is not a real day of the year'],
     ['avgLastSpringFrost', { avgLastSpringFrost: 'April 2' }, 'avgLastSpringFrost', 'Average last spring frost must be a month and day like 04-15'],
     ['avgFirstFallFrost', { avgFirstFallFrost: 1029 }, 'avgFirstFallFrost', 'Average first fall frost must be a month and day'],
+    ['avgFirstHardFreeze', { avgFirstHardFreeze: '12-32' }, 'avgFirstHardFreeze', 'Average first hard freeze is not a real day of the year'],
     ['seasonOpensOn', { seasonOpensOn: '2026-02-30' }, 'seasonOpensOn', 'Season opening date must be a real date (YYYY-MM-DD)'],
     ['seasonOpensOn', { seasonOpensOn: 20260930 }, 'seasonOpensOn', 'Season opening date must be a date'],
     ['tenure', { tenure: 'rented' }, 'tenure', 'Tenure must be owned, leased or permission'],
