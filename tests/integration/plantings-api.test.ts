@@ -110,10 +110,14 @@ describe('POST /api/plots/[plotId]/plan/compare', () => {
     expect([early.ok, late.ok]).toEqual([true, false]);
 
     // With the property's own hard-freeze date, hardy white clover counts to it instead of the estimate:
-    // 2027-11-24 − 56 days = 2027-09-29, so 2027-09-15 now has 14 days to spare, by hand.
+    // 2027-11-24 − 56 days = 2027-09-29, so 2027-09-15 now has 14 days to spare and 2027-09-30 is a day late, by hand.
     expect((await owner.client.patch(`/api/properties/${property.id}`, { avgFirstHardFreeze: '11-24' })).status).toBe(200);
-    const recorded = await member.client.post(`/api/plots/${plotId}/plan/compare`, { planting: BODY, seedDates: ['2027-09-15'] });
-    expect(recorded.body.options[0].frost).toMatchObject({ limitDate: '2027-09-29', marginDays: 14 });
+    const recorded = await member.client.post(`/api/plots/${plotId}/plan/compare`, { planting: BODY, seedDates: ['2027-09-15', '2027-09-30'] });
+    expect(recorded.status, recorded.text).toBe(200);
+    expect(recorded.body.options.map((o: { frost: { limitDate: string; marginDays: number } }) => [o.frost.limitDate, o.frost.marginDays])).toEqual([
+      ['2027-09-29', 14],
+      ['2027-09-29', -1],
+    ]);
     expect((await owner.client.patch(`/api/properties/${property.id}`, { avgFirstHardFreeze: '' })).status).toBe(200);
     for (const o of res.body.options) {
       expect(o.germination.daysToEmergence).toBeGreaterThan(0);
