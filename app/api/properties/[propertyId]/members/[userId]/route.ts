@@ -24,7 +24,7 @@ export const DELETE = route(async (_request, { params }: Context) => {
   const { propertyId, userId } = await params;
   const access = await requireRole(propertyId, 'viewer');
   if (access.user.id !== userId) await requireRole(propertyId, 'owner');
-  const removed = await removeMember(propertyId, userId).catch(lastOwner);
+  const removed = await removeMember(propertyId, userId, access.user.id !== userId).catch(lastOwner);
   if (!removed) throw notFound();
   return new Response(null, { status: 204 });
 });
