@@ -7,10 +7,6 @@ export async function findUserByEmail(email: string) {
   return getDb().selectFrom('users').selectAll().where('email', '=', email.toLowerCase()).executeTakeFirst();
 }
 
-export async function findUserById(id: string) {
-  return getDb().selectFrom('users').select(['id', 'email', 'name']).where('id', '=', id).executeTakeFirst();
-}
-
 /** Creates a user; returns null when the e-mail is taken (the unique index decides, not a prior read). */
 export async function createUser(input: { email: string; name: string; passwordHash: string; verified?: boolean }) {
   const row = await getDb()
