@@ -41,6 +41,7 @@ export const SIGN_UP_LIMIT_SOURCES = {
   globalPerHour: 'common practice, no source: far above the sign-ups a small product sees, far below a scripted flood',
 };
 
+/** Overridden by INVITATIONS_PER_PROPERTY_PER_HOUR. */
 export const INVITATION_LIMIT_DEFAULTS = { perPropertyPerHour: 20 };
 export const INVITATION_LIMIT_SOURCES = {
   perPropertyPerHour: 'common practice, no source: a club inviting its members in one sitting',
@@ -53,10 +54,16 @@ const keyOf = (...parts: string[]) => createHash('sha256').update(parts.join('\n
 type Limiter = ReturnType<typeof postgresLimiter>;
 let limiters: Record<'pairFailures' | 'addressFailures' | 'delays' | 'known' | 'signUpAddress' | 'signUpAll' | 'invitations', Limiter> | null = null;
 
-function globalSignUpsPerHour(): number {
-  const raw = Number(process.env.SIGN_UP_GLOBAL_PER_HOUR);
-  return Number.isInteger(raw) && raw > 0 ? raw : SIGN_UP_LIMIT_DEFAULTS.globalPerHour;
+function positiveFromEnv(name: string, fallback: number): number {
+  const raw = Number(process.env[name]);
+  return Number.isInteger(raw) && raw > 0 ? raw : fallback;
 }
+
+/** Sign-ups per hour from everyone together, as configured. */
+export const globalSignUpsPerHour = () => positiveFromEnv('SIGN_UP_GLOBAL_PER_HOUR', SIGN_UP_LIMIT_DEFAULTS.globalPerHour);
+/** Invitations one property may send per hour, as configured. */
+export const invitationsPerPropertyPerHour = () =>
+  positiveFromEnv('INVITATIONS_PER_PROPERTY_PER_HOUR', INVITATION_LIMIT_DEFAULTS.perPropertyPerHour);
 
 function store() {
   const d = SIGN_IN_DELAY_DEFAULTS;
@@ -68,7 +75,7 @@ function store() {
     known: postgresLimiter('signin-known', 1, d.knownAddressDays * 24 * HOUR_SECONDS),
     signUpAddress: postgresLimiter('signup-address', SIGN_UP_LIMIT_DEFAULTS.perAddressPerHour, HOUR_SECONDS),
     signUpAll: postgresLimiter('signup-all', globalSignUpsPerHour(), HOUR_SECONDS),
-    invitations: postgresLimiter('invite-property', INVITATION_LIMIT_DEFAULTS.perPropertyPerHour, HOUR_SECONDS),
+    invitations: postgresLimiter('invite-property', invitationsPerPropertyPerHour(), HOUR_SECONDS),
   };
   return limiters;
 }

@@ -84,6 +84,8 @@ export function services({ env, dataDir, webPort }) {
   ];
 }
 
+const TEST_WEB_LIMITS = { TRUSTED_PROXY_HOPS: '1', SIGN_UP_GLOBAL_PER_HOUR: '100000', INVITATIONS_PER_PROPERTY_PER_HOUR: '40' };
+
 export function testServices({ env, workDir, dataDir }) {
   const webPort = new URL(env.SOWCAST_BASE_URL).port;
   const ports = { weather: env.TEST_PORT_WEATHER, smtp: env.TEST_PORT_SMTP, inbox: env.TEST_PORT_INBOX, push: env.TEST_PORT_PUSH };
@@ -95,8 +97,10 @@ export function testServices({ env, workDir, dataDir }) {
       command: process.execPath,
       args: ['scripts/web-server.mjs', '-H', '127.0.0.1', '-p', webPort],
       // Every test client comes from loopback and says its own made-up address in X-Forwarded-For, standing in
-      // for one trusted proxy in front (tests/support/http.ts); the whole suite's sign-ups share one hour.
-      env: { TRUSTED_PROXY_HOPS: '1', SIGN_UP_GLOBAL_PER_HOUR: '100000' },
+      // for one trusted proxy in front (tests/support/http.ts); the whole suite's sign-ups share one hour, and the
+      // role matrix invites on one property more than 20 times. Exported too, so tests know the numbers.
+      env: TEST_WEB_LIMITS,
+      exports: TEST_WEB_LIMITS,
       readyUrl: `${env.SOWCAST_BASE_URL}/api/health`,
     },
   ];

@@ -515,7 +515,12 @@ const CASES: Case[] = [
       return { path: `/api/properties/${property.id}/members/${fx.people.spare.user.id}`, context: { propertyId: property.id } };
     },
     snapshot: (fx, t) => roleOf(fx, t.context!.propertyId, fx.people.spare.user.id),
-    check: async (_res, fx, _actor, t) => expect(await roleOf(fx, t.context!.propertyId, fx.people.spare.user.id)).toBeNull(),
+    check: async (_res, fx, _actor, t) => {
+      expect(await roleOf(fx, t.context!.propertyId, fx.people.spare.user.id)).toBeNull();
+      // Being removed by an owner ends the person's sessions (account-security.test.ts): spare signs in again.
+      expect((await fx.people.spare.client.get('/api/properties')).status).toBe(401);
+      expect((await fx.people.spare.client.signIn(fx.people.spare.user.email, fx.people.spare.user.password)).ok).toBe(true);
+    },
   },
   {
     method: 'GET',

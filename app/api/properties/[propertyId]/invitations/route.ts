@@ -1,4 +1,4 @@
-import { INVITATION_LIMIT_DEFAULTS, retryLater, takeInvitation, waitWords } from '@/lib/auth/limits';
+import { invitationsPerPropertyPerHour, retryLater, takeInvitation, waitWords } from '@/lib/auth/limits';
 import { requireRole } from '@/lib/auth/roles';
 import { now } from '@/lib/clock';
 import { createInvitation, listInvitations } from '@/lib/data/invitations';
@@ -29,7 +29,7 @@ export const POST = route(async (request, { params }: Context) => {
   const input = await parseBody(request, invitationSchema);
   const wait = await takeInvitation(propertyId);
   if (wait > 0) {
-    const limit = INVITATION_LIMIT_DEFAULTS.perPropertyPerHour;
+    const limit = invitationsPerPropertyPerHour();
     return retryLater(429, `This property has sent its ${limit} invitations for this hour. Try again in ${waitWords(wait)}.`, wait);
   }
   const property = await getProperty(propertyId);
