@@ -37,6 +37,8 @@ interface SessionClaims {
   /** The account's session version when the token was issued. */
   sv?: number;
   verified?: boolean;
+  /** Whether this very request read the account (false only when the database could not be reached). */
+  checked?: boolean;
 }
 
 export const authOptions: NextAuthOptions = {
@@ -102,8 +104,16 @@ export const authOptions: NextAuthOptions = {
         claims.sv = (user as { sessionVersion?: number }).sessionVersion ?? 0;
       }
       if (!claims.uid || !claims.sid || typeof claims.sv !== 'number') throw new Error('session token without a session');
-      const current = await activeSessionUser(claims.uid, claims.sid, claims.sv);
+      let current: Awaited<ReturnType<typeof activeSessionUser>>;
+      try {
+        current = await activeSessionUser(claims.uid, claims.sid, claims.sv);
+      } catch {
+        // The database is out of reach: that is no sign-out. getCurrentUser asks again and answers 503.
+        claims.checked = false;
+        return claims;
+      }
       if (!current) throw new Error('session ended');
+      claims.checked = true;
       claims.name = current.name;
       claims.email = current.email;
       claims.verified = Boolean(current.email_verified_at);
@@ -117,6 +127,7 @@ export const authOptions: NextAuthOptions = {
         user.name = claims.name;
         user.email = claims.email;
         user.emailVerified = Boolean(claims.verified);
+        Object.assign(user, { checked: claims.checked === true, sid: claims.sid, sv: claims.sv });
       }
       return session;
     },

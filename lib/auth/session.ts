@@ -1,4 +1,5 @@
 import { getServerSession } from 'next-auth';
+import { activeSessionUser } from '@/lib/data/users';
 import { HttpError } from '@/lib/http';
 import { authOptions } from './options';
 
@@ -16,8 +17,18 @@ export interface CurrentUser {
  */
 export async function getCurrentUser(): Promise<CurrentUser | null> {
   const session = await getServerSession(authOptions);
-  const user = session?.user as { id?: string; email?: string | null; name?: string | null; emailVerified?: boolean } | undefined;
+  const user = session?.user as
+    | { id?: string; email?: string | null; name?: string | null; emailVerified?: boolean; checked?: boolean; sid?: string; sv?: number }
+    | undefined;
   if (!user?.id || !user.email) return null;
+  if (!user.checked) {
+    // The session callback could not reach the database: ask again, so an outage answers 503 (lib/http.ts)
+    // rather than "sign in first", and an ended session is still refused.
+    if (!user.sid || typeof user.sv !== 'number') return null;
+    const current = await activeSessionUser(user.id, user.sid, user.sv);
+    if (!current) return null;
+    return { id: current.id, email: current.email, name: current.name, emailVerified: Boolean(current.email_verified_at) };
+  }
   return { id: user.id, email: user.email, name: user.name ?? '', emailVerified: Boolean(user.emailVerified) };
 }
 

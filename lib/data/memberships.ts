@@ -45,8 +45,11 @@ export class LastOwnerError extends Error {
   }
 }
 
-/** Changes a role; refuses to leave the property without an owner. Locks the property's rows meanwhile. */
-export async function changeRole(propertyId: string, userId: string, role: PropertyRole) {
+/**
+ * Changes a role; refuses to leave the property without an owner. Locks the property's rows meanwhile.
+ * `endSessions` when someone else lowers the person's role (not when they step down themself).
+ */
+export async function changeRole(propertyId: string, userId: string, role: PropertyRole, endSessions = false) {
   return getDb().transaction().execute(async (trx) => {
     const rows = await trx
       .selectFrom('memberships')
@@ -65,7 +68,7 @@ export async function changeRole(propertyId: string, userId: string, role: Prope
       .where('user_id', '=', userId)
       .execute();
     // A role taken away ends the person's sessions: a copied token carries nothing of the old role.
-    if (ROLE_RANK[role] < ROLE_RANK[target.role]) await bumpSessionVersion(userId, trx);
+    if (endSessions && ROLE_RANK[role] < ROLE_RANK[target.role]) await bumpSessionVersion(userId, trx);
     return { userId, role };
   });
 }

@@ -12,9 +12,9 @@ function lastOwner(error: unknown): never {
 
 export const PATCH = route(async (request, { params }: Context) => {
   const { propertyId, userId } = await params;
-  await requireRole(propertyId, 'owner');
+  const { user } = await requireRole(propertyId, 'owner');
   const { role } = await parseBody(request, roleChangeSchema);
-  const changed = await changeRole(propertyId, userId, role).catch(lastOwner);
+  const changed = await changeRole(propertyId, userId, role, user.id !== userId).catch(lastOwner);
   if (!changed) throw notFound();
   return json({ member: changed });
 });
