@@ -141,7 +141,7 @@ export async function startWeb(pg: BenchPostgres): Promise<Web> {
     rmSync(dataDir, { recursive: true, force: true });
     throw error;
   }
-  const child = spawn(process.execPath, ['node_modules/next/dist/bin/next', 'start', '-H', '127.0.0.1', '-p', String(port)], {
+  const child = spawn(process.execPath, ['scripts/web-server.mjs', '-H', '127.0.0.1', '-p', String(port)], {
     cwd: ROOT,
     env,
     stdio: ['ignore', 'ignore', 'pipe'],

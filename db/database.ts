@@ -17,6 +17,32 @@ export interface UsersTable {
   password_hash: string;
   created_at: CreatedAt;
   last_seen_at: ColumnType<Date | null, never, Date | string | null>;
+  /** Null until the person follows the link in the verification e-mail. */
+  email_verified_at: ColumnType<Date | null, Date | string | null | undefined, Date | string | null>;
+  /** Embedded in each session token; bumping it ends every session of the account. */
+  session_version: ColumnType<number, number | undefined, number>;
+}
+
+export interface EmailVerificationsTable {
+  id: Generated<string>;
+  user_id: string;
+  token_hash: string;
+  created_at: CreatedAt;
+  expires_at: Date | string;
+  used_at: Date | string | null;
+}
+
+export interface SignedOutSessionsTable {
+  session_id: string;
+  user_id: string;
+  expires_at: Date | string;
+}
+
+/** rate-limiter-flexible's store: points used in the window, window end in epoch milliseconds. */
+export interface RateLimitsTable {
+  key: string;
+  points: number;
+  expire: number | null;
 }
 
 export interface SignInAttemptsTable {
@@ -211,6 +237,8 @@ export interface NotificationsTable {
   attempts: ColumnType<number, number | undefined, number>;
   last_error: string | null;
   created_at: CreatedAt;
+  /** The invitation an invitation e-mail carries; the sender re-checks it is still open. */
+  invitation_id: ColumnType<string | null, string | null | undefined, string | null>;
 }
 
 export interface BlendsTable {
@@ -361,6 +389,9 @@ export interface CalendarFeedsTable {
 
 export interface Database {
   users: UsersTable;
+  email_verifications: EmailVerificationsTable;
+  signed_out_sessions: SignedOutSessionsTable;
+  rate_limits: RateLimitsTable;
   sign_in_attempts: SignInAttemptsTable;
   properties: PropertiesTable;
   memberships: MembershipsTable;

@@ -103,7 +103,7 @@ async function loadDemoLocked(db: Kysely<Database>, at: Date) {
     }
     const row = await db
       .insertInto('users')
-      .values({ email: u.email, name: u.name, password_hash: await bcrypt.hash(u.password, 10) })
+      .values({ email: u.email, name: u.name, password_hash: await bcrypt.hash(u.password, 10), email_verified_at: at })
       .returning('id')
       .executeTakeFirstOrThrow();
     userIds[u.role] = row.id;

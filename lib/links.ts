@@ -4,3 +4,6 @@ export function appBaseUrl(): string {
 }
 
 export const invitationLink = (token: string) => `${appBaseUrl()}/invitations/${token}`;
+
+export const verificationLink = (token: string) => `${appBaseUrl()}/verify-email/${token}`;
+export const signInLink = () => `${appBaseUrl()}/sign-in`;

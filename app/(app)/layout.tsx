@@ -1,3 +1,4 @@
+import Link from 'next/link';
 import { headers } from 'next/headers';
 import { redirect } from 'next/navigation';
 import type { ReactNode } from 'react';
@@ -19,6 +20,12 @@ export default async function SignedInLayout({ children }: { children: ReactNode
       </a>
       <AppHeader userName={user.name} />
       <main id="main" className="mx-auto w-full max-w-5xl px-4 pb-16 pt-6 sm:px-6 sm:pt-8">
+        {user.emailVerified ? null : (
+          <p className="mb-6 rounded-lg bg-rain-light px-4 py-3 text-sm">
+            Confirm your e-mail with the link we sent to <strong>{user.email}</strong>: until then nobody can add you to their
+            property. <Link href="/settings" className="font-semibold underline">Send it again</Link>
+          </p>
+        )}
         {children}
       </main>
     </Providers>

@@ -41,11 +41,7 @@ export function SignUpForm({ callbackUrl, email = '' }: { callbackUrl: string; e
         for (const field of FIELDS) {
           if (error.fields[field]) setError(field, { type: 'server', message: error.fields[field] });
         }
-        setMessage(
-          error.status === 409
-            ? { text: 'There is already an account with that e-mail.', signIn: true }
-            : { text: error.message },
-        );
+        setMessage({ text: error.message });
       } else {
         setMessage({ text: errorMessage(error) });
       }
@@ -53,7 +49,8 @@ export function SignUpForm({ callbackUrl, email = '' }: { callbackUrl: string; e
     }
     const result = await signIn('credentials', { redirect: false, email: values.email, password: values.password }).catch(() => null);
     if (!result?.ok || result.error) {
-      setMessage({ text: 'Your account is ready, but signing in did not work just now. Sign in with your new password.', signIn: true });
+      // The same words whether the address was new or already had an account (the server says no more).
+      setMessage({ text: 'Check your e-mail: we sent a link to confirm the address. If you already have an account, sign in with it.', signIn: true });
       return;
     }
     router.replace(callbackUrl);

@@ -29,6 +29,10 @@ export async function claimedRow(job: { data: SendJob }) {
 export async function sendEmailNotification(ctx: JobContext, job: { id: string; data: SendJob }) {
   const { row, skip } = await claimedRow(job);
   if (!row) return { outcome: skip };
+  if (row.invitation_open === false) {
+    await markDropped(row.id, now(), 'the invitation was revoked, accepted or expired before its e-mail was sent');
+    return { outcome: 'dropped' };
+  }
   const to = row.email_to ?? (row.user_id ? await userEmail(row.user_id) : null);
   if (!to) {
     await markDropped(row.id, now(), 'the recipient has no e-mail address');

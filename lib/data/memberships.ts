@@ -1,5 +1,7 @@
 import { getDb } from '@/db';
 import type { PropertyRole } from '@/db/database';
+import { ROLE_RANK } from '@/lib/validations/membership';
+import { bumpSessionVersion } from './users';
 
 export async function getMembershipRole(propertyId: string, userId: string): Promise<PropertyRole | null> {
   const row = await getDb()
@@ -43,8 +45,11 @@ export class LastOwnerError extends Error {
   }
 }
 
-/** Changes a role; refuses to leave the property without an owner. Locks the property's rows meanwhile. */
-export async function changeRole(propertyId: string, userId: string, role: PropertyRole) {
+/**
+ * Changes a role; refuses to leave the property without an owner. Locks the property's rows meanwhile.
+ * `endSessions` when someone else lowers the person's role (not when they step down themself).
+ */
+export async function changeRole(propertyId: string, userId: string, role: PropertyRole, endSessions = false) {
   return getDb().transaction().execute(async (trx) => {
     const rows = await trx
       .selectFrom('memberships')
@@ -62,11 +67,14 @@ export async function changeRole(propertyId: string, userId: string, role: Prope
       .where('property_id', '=', propertyId)
       .where('user_id', '=', userId)
       .execute();
+    // A role taken away ends the person's sessions: a copied token carries nothing of the old role.
+    if (endSessions && ROLE_RANK[role] < ROLE_RANK[target.role]) await bumpSessionVersion(userId, trx);
     return { userId, role };
   });
 }
 
-export async function removeMember(propertyId: string, userId: string) {
+/** Removes a membership; `endSessions` when someone else removed the person (not when they left themself). */
+export async function removeMember(propertyId: string, userId: string, endSessions = false) {
   return getDb().transaction().execute(async (trx) => {
     const rows = await trx
       .selectFrom('memberships')
@@ -78,6 +86,7 @@ export async function removeMember(propertyId: string, userId: string) {
     if (!target) return false;
     if (target.role === 'owner' && rows.filter((r) => r.role === 'owner').length <= 1) throw new LastOwnerError();
     await trx.deleteFrom('memberships').where('property_id', '=', propertyId).where('user_id', '=', userId).execute();
+    if (endSessions) await bumpSessionVersion(userId, trx);
     return true;
   });
 }

@@ -13,6 +13,8 @@ export interface NewNotification {
   channel: NotificationChannel;
   message: unknown;
   sendAfter: Date;
+  /** An invitation e-mail's invitation: the sender drops the e-mail when it was revoked meanwhile. */
+  invitationId?: string | null;
 }
 
 /** Inserts what is not there yet; the unique dedupe key makes a second worker's insert a no-op. */
@@ -31,6 +33,7 @@ export async function insertNotifications(rows: NewNotification[], db: Kysely<Da
         channel: r.channel,
         message: JSON.stringify(r.message),
         send_after: r.sendAfter,
+        invitation_id: r.invitationId ?? null,
       })),
     )
     .onConflict((oc) => oc.column('dedupe_key').doNothing())
@@ -68,17 +71,30 @@ export async function claimDue(o: { now: Date; workerId: string; limit: number }
     .execute();
 }
 
+/**
+ * The row, with whether an invitation e-mail's invitation is still open (not revoked, accepted or expired)
+ * at this moment: read in the same statement the sender acts on, so a revocation before sending wins.
+ */
 export async function getNotification(id: string) {
-  return getDb().selectFrom('notifications').selectAll().where('id', '=', id).executeTakeFirst();
+  return getDb()
+    .selectFrom('notifications')
+    .leftJoin('invitations', 'invitations.id', 'notifications.invitation_id')
+    .selectAll('notifications')
+    .select(
+      sql<boolean | null>`case when notifications.invitation_id is null then null
+        else invitations.revoked_at is null and invitations.accepted_at is null and invitations.expires_at > now() end`.as('invitation_open'),
+    )
+    .where('notifications.id', '=', id)
+    .executeTakeFirst();
 }
 
-// An invitation's message holds the acceptance link, a bearer secret (the invitations table keeps only its
+// An invitation's or a verification's message holds a link that is a bearer secret (their tables keep only its
 // hash). Once the e-mail is sent or given up, the row keeps the subject and push title, never the link.
-const withoutSecrets = sql<string>`case when kind = 'invitation' then jsonb_build_object(
+const withoutSecrets = sql<string>`case when kind in ('invitation', 'email-verification') then jsonb_build_object(
   'subject', message->'subject',
-  'text', 'Sent. The acceptance link is not kept after sending.',
+  'text', 'Sent. The link is not kept after sending.',
   'html', '',
-  'push', jsonb_build_object('title', message->'push'->'title', 'body', message->'push'->'body', 'url', '', 'tag', 'invitation')
+  'push', jsonb_build_object('title', message->'push'->'title', 'body', message->'push'->'body', 'url', '', 'tag', kind)
 ) else message end`;
 
 export async function markSent(id: string, at: Date) {

@@ -102,6 +102,17 @@ export async function getProperty(id: string, db: Kysely<Database> = getDb()) {
   return db.selectFrom('properties').selectAll().where('id', '=', id).executeTakeFirst();
 }
 
+/** How many properties the user owns. */
+export async function countOwnedProperties(userId: string): Promise<number> {
+  const row = await getDb()
+    .selectFrom('memberships')
+    .select((eb) => eb.fn.countAll<number>().as('n'))
+    .where('user_id', '=', userId)
+    .where('role', '=', 'owner')
+    .executeTakeFirstOrThrow();
+  return Number(row.n);
+}
+
 /** Creates the property and makes its creator the owner, in one transaction. */
 export async function createProperty(ownerId: string, input: PropertyInput): Promise<PropertyDto> {
   return getDb().transaction().execute(async (trx) => {

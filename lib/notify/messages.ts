@@ -67,7 +67,7 @@ export const checkUrl = (links: LinkBase, plotId: string, stepId?: string | null
 // --- the two bodies -------------------------------------------------------------------------------------------
 
 /** A block of the message, written once and rendered both as plain text and as HTML. */
-type Block =
+export type Block =
   | { kind: 'para'; text: string }
   | { kind: 'link'; label: string; url: string }
   | { kind: 'list'; items: string[] }
@@ -150,7 +150,7 @@ ${body}
 `;
 }
 
-function build(links: LinkBase, subject: string, blocks: Block[], push: PushContent): NotifyMessage {
+export function build(links: LinkBase, subject: string, blocks: Block[], push: PushContent): NotifyMessage {
   const cleanSubject = oneLine(subject);
   return {
     subject: cleanSubject,

@@ -69,8 +69,9 @@ export function services({ env, dataDir, webPort }) {
     {
       name: 'web',
       enabled: true,
-      command: nodeBin('next'),
-      args: ['start', '-H', '127.0.0.1', '-p', String(webPort)],
+      // Next's handler behind node:http, so the socket's address reaches the sign-in limits (see the script).
+      command: process.execPath,
+      args: ['scripts/web-server.mjs', '-H', '127.0.0.1', '-p', String(webPort)],
       env: {},
       readyUrl: `http://127.0.0.1:${webPort}/api/health`,
     },
@@ -83,6 +84,8 @@ export function services({ env, dataDir, webPort }) {
   ];
 }
 
+const TEST_WEB_LIMITS = { TRUSTED_PROXY_HOPS: '1', SIGN_UP_GLOBAL_PER_HOUR: '100000', INVITATIONS_PER_PROPERTY_PER_HOUR: '40' };
+
 export function testServices({ env, workDir, dataDir }) {
   const webPort = new URL(env.SOWCAST_BASE_URL).port;
   const ports = { weather: env.TEST_PORT_WEATHER, smtp: env.TEST_PORT_SMTP, inbox: env.TEST_PORT_INBOX, push: env.TEST_PORT_PUSH };
@@ -91,9 +94,13 @@ export function testServices({ env, workDir, dataDir }) {
     {
       name: 'web',
       build: { label: 'building the app (next build)', command: nodeBin('next'), args: ['build'] },
-      command: nodeBin('next'),
-      args: ['start', '-H', '127.0.0.1', '-p', webPort],
-      env: {},
+      command: process.execPath,
+      args: ['scripts/web-server.mjs', '-H', '127.0.0.1', '-p', webPort],
+      // Every test client comes from loopback and says its own made-up address in X-Forwarded-For, standing in
+      // for one trusted proxy in front (tests/support/http.ts); the whole suite's sign-ups share one hour, and the
+      // role matrix invites on one property more than 20 times. Exported too, so tests know the numbers.
+      env: TEST_WEB_LIMITS,
+      exports: TEST_WEB_LIMITS,
       readyUrl: `${env.SOWCAST_BASE_URL}/api/health`,
     },
   ];

@@ -515,7 +515,12 @@ const CASES: Case[] = [
       return { path: `/api/properties/${property.id}/members/${fx.people.spare.user.id}`, context: { propertyId: property.id } };
     },
     snapshot: (fx, t) => roleOf(fx, t.context!.propertyId, fx.people.spare.user.id),
-    check: async (_res, fx, _actor, t) => expect(await roleOf(fx, t.context!.propertyId, fx.people.spare.user.id)).toBeNull(),
+    check: async (_res, fx, _actor, t) => {
+      expect(await roleOf(fx, t.context!.propertyId, fx.people.spare.user.id)).toBeNull();
+      // Being removed by an owner ends the person's sessions (account-security.test.ts): spare signs in again.
+      expect((await fx.people.spare.client.get('/api/properties')).status).toBe(401);
+      expect((await fx.people.spare.client.signIn(fx.people.spare.user.email, fx.people.spare.user.password)).ok).toBe(true);
+    },
   },
   {
     method: 'GET',
@@ -947,6 +952,22 @@ const CASES: Case[] = [
     },
   },
   {
+    // Every actor here has confirmed their address; an unconfirmed one is in account-security.test.ts.
+    method: 'POST',
+    route: '/api/settings/email-verification',
+    expect: anySignedIn(409),
+    target: () => ({ path: '/api/settings/email-verification' }),
+  },
+  {
+    // A wrong current password changes nothing for anyone; a right one ends the actor's sessions, so it is
+    // tested on its own people in account-security.test.ts.
+    method: 'POST',
+    route: '/api/settings/password',
+    expect: anySignedIn(400),
+    target: () => ({ path: '/api/settings/password', body: { currentPassword: 'not the current password', newPassword: `new-${randomUUID()}` } }),
+    check: (res) => expect(res.body.fields.currentPassword).toBeTruthy(),
+  },
+  {
     // A person's own calendar feeds; the list never carries a token or its hash (ical-feed.test.ts).
     method: 'GET',
     route: '/api/settings/calendar-feeds',
@@ -1133,8 +1154,10 @@ afterAll(async () => {
 });
 
 // Routes that are not about a property: sign-in (tests/integration/auth.test.ts), sign-up
-// (validation.test.ts, auth.test.ts) and the health probe.
-const OUTSIDE_THE_MATRIX = ['/api/auth/[...nextauth]', '/api/users', '/api/health'];
+// (validation.test.ts, account-security.test.ts), the e-mail confirmation link (its token is the proof, no session;
+// account-security.test.ts), "sign out everywhere" (it would end the actors' own sessions; account-security.test.ts)
+// and the health probe.
+const OUTSIDE_THE_MATRIX = ['/api/auth/[...nextauth]', '/api/users', '/api/users/verification', '/api/settings/sessions', '/api/health'];
 
 function routeHandlers(): string[] {
   const apiDir = path.resolve(__dirname, '../../app/api');

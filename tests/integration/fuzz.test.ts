@@ -443,6 +443,17 @@ const SPECS: Record<string, Spec> = {
     base: () => ({ label: `Phone ${MARK}`.slice(0, 40) }),
     fields: { label: { t: 'text', max: 60, required: false } },
   },
+  'POST /api/users/verification': {
+    as: 'signedOut',
+    path: () => '/api/users/verification',
+    base: () => ({ token: 'A'.repeat(43) }),
+    fields: { token: { t: 'text', max: 100, min: 20 } },
+  },
+  'POST /api/settings/password': {
+    path: () => '/api/settings/password',
+    base: () => ({ currentPassword: `not-it-${MARK}`, newPassword: `pw-${MARK}-long-enough` }),
+    fields: { currentPassword: { t: 'text', max: 200 }, newPassword: { t: 'text', max: 200, min: 10 } },
+  },
   'POST /api/users': {
     as: 'signedOut',
     path: () => '/api/users',

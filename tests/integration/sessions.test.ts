@@ -1,8 +1,8 @@
 // Sessions and secret links. The real server runs on http, so the production (https) cookie behaviour is
 // checked by running next-auth's own request handler in this process with lib/auth/options.ts loaded under an
 // https NEXTAUTH_URL, and the http behaviour on the test server's real answers.
-// Sign-in limits are covered in tests/integration/auth.test.ts ("after 5 failures for one e-mail…",
-// "30 failures from one address…"); invitation revocation and expiry in access.test.ts; feed revocation in
+// Sign-in delays are covered in tests/integration/auth.test.ts; sessions ended by sign-out, sign-out everywhere,
+// a password change or a role taken away in account-security.test.ts; invitation revocation and expiry in access.test.ts; feed revocation in
 // ical-feed.test.ts. This file adds what those do not: every cookie's attributes, token entropy, and that no
 // table anywhere holds a token.
 import { createRequire } from 'node:module';
@@ -185,7 +185,9 @@ describe('secret links: invitation and calendar-feed tokens', () => {
     owner = await signedInUser('sessions-tokens');
     propertyId = (await createProperty(owner.client)).id;
     invitationTokens = [];
-    for (let i = 0; i < COUNT; i++) invitationTokens.push((await invite(owner.client, propertyId, uniqueEmail('tok'), 'viewer')).token);
+    // Spread over three properties: one property sends at most INVITATION_LIMIT_DEFAULTS.perPropertyPerHour.
+    const properties = [propertyId, (await createProperty(owner.client)).id, (await createProperty(owner.client)).id];
+    for (let i = 0; i < COUNT; i++) invitationTokens.push((await invite(owner.client, properties[i % 3], uniqueEmail('tok'), 'viewer')).token);
     feedTokens = [];
     for (let i = 0; i < COUNT; i++) {
       const res = await owner.client.post('/api/settings/calendar-feeds', { label: `Feed ${i}` });

@@ -1,6 +1,8 @@
 // An HTTP client for the running Sowcast server that signs in the way a browser does: next-auth's real
 // credentials flow (CSRF token, form post, cookies), then calls the JSON API with the session cookie.
 import { randomBytes, randomUUID } from 'node:crypto';
+import { sql } from 'kysely';
+import { testDb } from './db';
 
 export const SESSION_COOKIE = 'next-auth.session-token';
 
@@ -171,18 +173,60 @@ export interface TestUser {
 /** A unique address per call, so tests never collide on the shared database. */
 export const uniqueEmail = (prefix: string) => `${prefix}-${randomUUID()}@example.test`;
 
-/** Signs up a fresh user through POST /api/users. */
-export async function createUser(prefix: string, name = `Test ${prefix}`): Promise<TestUser> {
+/**
+ * The confirmation link queued for an address by sign-up (the e-mail's text in the outbox row, which the worker
+ * would send to the fake inbox), or null when none is waiting.
+ */
+export async function verificationLinkFor(email: string): Promise<string | null> {
+  const db = testDb();
+  try {
+    const row = await db
+      .selectFrom('notifications')
+      .innerJoin('users', 'users.id', 'notifications.user_id')
+      .select(sql<string>`notifications.message->>'text'`.as('text'))
+      .where('users.email', '=', email.toLowerCase())
+      .where('notifications.kind', '=', 'email-verification')
+      .orderBy('notifications.created_at', 'desc')
+      .executeTakeFirst();
+    return row ? (/https?:\/\/\S+\/verify-email\/[A-Za-z0-9_-]+/.exec(row.text)?.[0] ?? null) : null;
+  } finally {
+    await db.destroy();
+  }
+}
+
+/** Follows the confirmation link the way the page does: POST /api/users/verification with its token. */
+export async function verifyEmailOf(email: string): Promise<void> {
+  const link = await verificationLinkFor(email);
+  if (!link) throw new Error(`no confirmation e-mail is queued for ${email}`);
+  const answer = await new Client().post('/api/users/verification', { token: tokenOf(link) });
+  if (answer.status !== 200) throw new Error(`confirming ${email} answered ${answer.status}: ${answer.text}`);
+}
+
+async function userIdOf(email: string): Promise<string> {
+  const db = testDb();
+  try {
+    return (await db.selectFrom('users').select('id').where('email', '=', email.toLowerCase()).executeTakeFirstOrThrow()).id;
+  } finally {
+    await db.destroy();
+  }
+}
+
+/**
+ * Signs up a fresh user through POST /api/users and, unless `verified: false`, confirms the address through
+ * the link the sign-up queued. The sign-up answer names no account, so the id is read from the database.
+ */
+export async function createUser(prefix: string, name = `Test ${prefix}`, options: { verified?: boolean } = {}): Promise<TestUser> {
   const email = uniqueEmail(prefix);
   const password = `pw-${randomUUID()}`;
   const answer = await new Client().post('/api/users', { name, email, password });
-  if (answer.status !== 201) throw new Error(`sign-up for ${email} answered ${answer.status}: ${answer.text}`);
-  return { id: answer.body.user.id, email, name, password };
+  if (answer.status !== 202) throw new Error(`sign-up for ${email} answered ${answer.status}: ${answer.text}`);
+  if (options.verified !== false) await verifyEmailOf(email);
+  return { id: await userIdOf(email), email, name, password };
 }
 
 /** A fresh user and a client signed in as them. */
-export async function signedInUser(prefix: string): Promise<{ user: TestUser; client: Client }> {
-  const user = await createUser(prefix);
+export async function signedInUser(prefix: string, options: { verified?: boolean } = {}): Promise<{ user: TestUser; client: Client }> {
+  const user = await createUser(prefix, undefined, options);
   const client = new Client(prefix);
   const result = await client.signIn(user.email, user.password);
   if (!result.ok) throw new Error(`sign-in for ${user.email} failed: ${result.status} ${result.error}`);

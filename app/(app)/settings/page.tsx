@@ -1,5 +1,6 @@
 import type { Metadata } from 'next';
 import { redirect } from 'next/navigation';
+import { AccountSecurity } from '@/components/settings/account-security';
 import { CalendarFeeds } from '@/components/settings/calendar-feeds';
 import { NotificationSettingsForm } from '@/components/settings/notification-settings-form';
 import { PushDevices } from '@/components/settings/push-devices';
@@ -22,6 +23,7 @@ export default async function SettingsPage() {
       <NotificationSettingsForm initial={settings} email={user.email} zones={zones} />
       <PushDevices />
       <CalendarFeeds />
+      <AccountSecurity email={user.email} emailVerified={user.emailVerified} />
     </div>
   );
 }

@@ -2,7 +2,7 @@ import type { Metadata } from 'next';
 import Link from 'next/link';
 import { SignInForm } from '@/components/auth/sign-in-form';
 import { Card } from '@/components/ui/card';
-import { BAD_CREDENTIALS, TOO_MANY_ATTEMPTS } from '@/lib/auth/options';
+import { isSignInMessage } from '@/lib/auth/options';
 import { getCurrentUser } from '@/lib/auth/session';
 import { safeCallbackUrl } from '@/lib/client/navigation';
 
@@ -12,13 +12,12 @@ type SearchParams = Promise<Record<string, string | string[] | undefined>>;
 
 // Without JavaScript next-auth sends the visitor back here with ?error=…; only its own messages are shown,
 // so a crafted link cannot put arbitrary words on the sign-in page.
-const KNOWN_ERRORS = new Set([BAD_CREDENTIALS, TOO_MANY_ATTEMPTS]);
 
 export default async function SignInPage({ searchParams }: { searchParams: SearchParams }) {
   const query = await searchParams;
   const callbackUrl = safeCallbackUrl(query.callbackUrl, '/dashboard');
   const errorParam = typeof query.error === 'string' ? query.error : undefined;
-  const initialError = errorParam ? (KNOWN_ERRORS.has(errorParam) ? errorParam : 'Sign-in did not work. Try again.') : undefined;
+  const initialError = errorParam ? (isSignInMessage(errorParam) ? errorParam : 'Sign-in did not work. Try again.') : undefined;
   // A database hiccup must not hide the form; signing in will then say what is wrong.
   const user = await getCurrentUser().catch(() => null);
   return (

@@ -1,5 +1,5 @@
-import { requireUser } from '@/lib/auth/session';
-import { createProperty, listPropertiesForUser } from '@/lib/data/properties';
+import { requireUser, requireVerifiedEmail } from '@/lib/auth/session';
+import { countOwnedProperties, createProperty, listPropertiesForUser } from '@/lib/data/properties';
 import { json, parseBody, route } from '@/lib/http';
 import { propertySchema } from '@/lib/validations/property';
 
@@ -11,5 +11,7 @@ export const GET = route(async () => {
 export const POST = route(async (request) => {
   const user = await requireUser();
   const input = await parseBody(request, propertySchema);
+  // One property to try Sowcast with; more once the e-mail is confirmed.
+  if (!user.emailVerified && (await countOwnedProperties(user.id)) >= 1) requireVerifiedEmail(user, 'add a second property');
   return json({ property: await createProperty(user.id, input) }, 201);
 });

@@ -1,4 +1,4 @@
-import { requireUser } from '@/lib/auth/session';
+import { requireUser, requireVerifiedEmail } from '@/lib/auth/session';
 import { acceptInvitation, findInvitationByToken } from '@/lib/data/invitations';
 import { HttpError, json, notFound, route } from '@/lib/http';
 
@@ -22,6 +22,7 @@ export const POST = route(async (_request, { params }: Context) => {
       `This invitation is for ${invitation.email}. Sign in with that address, or ask the owner to invite ${user.email}.`,
     );
   }
+  requireVerifiedEmail(user, 'join a property');
   const accepted = await acceptInvitation(invitation.id, invitation.propertyId, user.id, invitation.role);
   if (!accepted) throw new HttpError(410, STATE_MESSAGES.accepted);
   return json({ propertyId: invitation.propertyId, role: invitation.role });

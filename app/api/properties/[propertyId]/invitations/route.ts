@@ -1,3 +1,4 @@
+import { invitationsPerPropertyPerHour, retryLater, takeInvitation, waitWords } from '@/lib/auth/limits';
 import { requireRole } from '@/lib/auth/roles';
 import { now } from '@/lib/clock';
 import { createInvitation, listInvitations } from '@/lib/data/invitations';
@@ -26,6 +27,11 @@ export const POST = route(async (request, { params }: Context) => {
   const { propertyId } = await params;
   const { user } = await requireRole(propertyId, 'owner');
   const input = await parseBody(request, invitationSchema);
+  const wait = await takeInvitation(propertyId);
+  if (wait > 0) {
+    const limit = invitationsPerPropertyPerHour();
+    return retryLater(429, `This property has sent its ${limit} invitations for this hour. Try again in ${waitWords(wait)}.`, wait);
+  }
   const property = await getProperty(propertyId);
   if (!property) throw notFound();
   const { token, invitation } = await createInvitation(propertyId, input.email, input.role, user.id);
@@ -48,6 +54,7 @@ export const POST = route(async (request, { params }: Context) => {
         expiresOn: localDateOf(new Date(invitation.expiresAt), property.time_zone),
       }),
       sendAfter: now(),
+      invitationId: invitation.id,
     },
   ]);
   return json({ invitation, link }, 201);

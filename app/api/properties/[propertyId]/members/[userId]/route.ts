@@ -12,9 +12,9 @@ function lastOwner(error: unknown): never {
 
 export const PATCH = route(async (request, { params }: Context) => {
   const { propertyId, userId } = await params;
-  await requireRole(propertyId, 'owner');
+  const { user } = await requireRole(propertyId, 'owner');
   const { role } = await parseBody(request, roleChangeSchema);
-  const changed = await changeRole(propertyId, userId, role).catch(lastOwner);
+  const changed = await changeRole(propertyId, userId, role, user.id !== userId).catch(lastOwner);
   if (!changed) throw notFound();
   return json({ member: changed });
 });
@@ -24,7 +24,7 @@ export const DELETE = route(async (_request, { params }: Context) => {
   const { propertyId, userId } = await params;
   const access = await requireRole(propertyId, 'viewer');
   if (access.user.id !== userId) await requireRole(propertyId, 'owner');
-  const removed = await removeMember(propertyId, userId).catch(lastOwner);
+  const removed = await removeMember(propertyId, userId, access.user.id !== userId).catch(lastOwner);
   if (!removed) throw notFound();
   return new Response(null, { status: 204 });
 });
