@@ -4,7 +4,9 @@
 // ellipsoid (Karney's GeographicLib) in international acres.
 import { gpx, kml } from '@tmcw/togeojson';
 import { DOMParser } from '@xmldom/xmldom';
-import { Geodesic } from 'geographiclib-geodesic';
+// The package is CommonJS that assigns module.exports inside a callback, so Node's ESM loader finds no named
+// exports in it: only the default import (module.exports) works both under plain Node and through a bundler.
+import geographiclib from 'geographiclib-geodesic';
 import { m2ToAcres } from '@/lib/agronomy/units';
 
 // The GeoJSON shapes used here (RFC 7946 §3), so the module needs no types package at run time or build.
@@ -24,6 +26,8 @@ export interface Feature<G> {
 }
 export type BoundaryFeature = Feature<Polygon | MultiPolygon>;
 export type BoundaryFormat = 'gpx' | 'kml' | 'geojson';
+
+const { Geodesic } = geographiclib;
 
 /** Bad input: the message is written for the person who uploaded the file. */
 export class BoundaryError extends Error {

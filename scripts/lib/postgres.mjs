@@ -1,6 +1,7 @@
 // PostgreSQL from Debian's package, run by us on loopback: install when missing, create a cluster in a
 // folder of ours, start, stop. As root the server runs as the `postgres` user (initdb refuses root).
-import { chmodSync, existsSync, mkdirSync, readdirSync, writeFileSync, chownSync } from 'node:fs';
+import { createHash } from 'node:crypto';
+import { chmodSync, existsSync, mkdirSync, readdirSync, realpathSync, rmSync, writeFileSync, chownSync } from 'node:fs';
 import path from 'node:path';
 import { aptInstall, capture, isRoot, log } from './common.mjs';
 
@@ -29,10 +30,57 @@ function postgresIds() {
   return { uid: Number(passwd.stdout.trim()), gid: Number(group.stdout.trim()) };
 }
 
-/** Runs a server binary as the account that owns the cluster. */
+/**
+ * Runs a server binary as the account that owns the cluster. The working folder is `/`: initdb and pg_ctl
+ * change back into the folder they were started from, and as `postgres` a private checkout is out of reach.
+ */
 function asOwner(bin, args) {
-  const result = isRoot ? capture('runuser', ['-u', 'postgres', '--', bin, ...args]) : capture(bin, args);
+  const result = isRoot ? capture('runuser', ['-u', 'postgres', '--', bin, ...args], { cwd: '/' }) : capture(bin, args);
   return result;
+}
+
+/** The postgres account's home (Debian: /var/lib/postgresql), which it owns and can always enter. */
+function postgresHome() {
+  const entry = capture('getent', ['passwd', 'postgres']);
+  const home = entry.status === 0 ? entry.stdout.trim().split(':')[5] : '';
+  if (!home || !existsSync(home)) throw new Error('the postgres system user has no home folder (it comes with the postgresql package)');
+  return home;
+}
+
+/** True when the `postgres` account can read `file`, i.e. can pass every folder above it. */
+function postgresCanRead(file) {
+  return capture('runuser', ['-u', 'postgres', '--', 'test', '-r', file], { cwd: '/' }).status === 0;
+}
+
+/**
+ * Where `npm start` keeps its cluster for the checkout at `checkout`. As an ordinary user the server runs
+ * as that user: `.data/postgres` in the checkout. As root it runs as `postgres`, who cannot pass a private
+ * (0700) home or `mktemp -d` folder, so the cluster lives in postgres's home instead,
+ * `<home>/sowcast/<id>` where the id is a hash of the checkout's real path: two checkouts never share a
+ * cluster and every start of one checkout finds the same one. A cluster an earlier version made in
+ * `.data/postgres` is kept while postgres can still reach it.
+ * Returns { dir, shown } (`shown`: the path for log lines) and writes `<dir>/checkout` naming the checkout.
+ */
+export function localClusterDir(checkout) {
+  const inCheckout = path.join(checkout, '.data', 'postgres');
+  if (!isRoot) return { dir: inCheckout, shown: '.data/postgres' };
+  postgresBin(); // installs the package, and with it the postgres account, when missing
+  const oldVersionFile = path.join(inCheckout, 'data', 'PG_VERSION');
+  if (existsSync(oldVersionFile)) {
+    if (postgresCanRead(oldVersionFile)) {
+      log('postgres', 'using the cluster an earlier version made in .data/postgres (the postgres user can reach it)');
+      return { dir: inCheckout, shown: '.data/postgres' };
+    }
+    log('postgres', 'ignoring the cluster in .data/postgres: the postgres user cannot reach it there');
+  }
+  const real = realpathSync(checkout);
+  const id = createHash('sha256').update(real).digest('hex').slice(0, 16);
+  const parent = path.join(postgresHome(), 'sowcast');
+  ownedDir(parent, 0o755);
+  const dir = path.join(parent, id);
+  mkdirSync(dir, { recursive: true });
+  writeFileSync(path.join(dir, 'checkout'), real + '\n');
+  return { dir, shown: dir };
 }
 
 function ownedDir(dir, mode) {
@@ -73,6 +121,8 @@ export function cluster({ dir, port, password = null, fast = false }) {
       args.push('--auth=trust');
     }
     const result = asOwner(path.join(bin, 'initdb'), args);
+    // The password stays in the caller's file; initdb has stored its hash, so this copy is not kept.
+    rmSync(path.join(runDir, 'initdb-password'), { force: true });
     if (result.status !== 0) throw new Error(`initdb failed:\n${result.stdout}\n${result.stderr}`);
     return true;
   }
