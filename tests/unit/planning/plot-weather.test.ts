@@ -178,6 +178,11 @@ describe('plotWeather: seed-zone moisture after seeding', () => {
     expect(w.moisture!.fromDate).toBe(option.moisture!.fromDate);
     expect(w.moisture!.moistDays).toBe(option.moisture!.moistDays);
     expect(w.moisture!.firstDryDate).toBe(option.moisture!.firstDryDate);
+    // The comparison's own germination reading is the plan's: its check date is the emergence it reports (no delay
+    // by default), and the seed zone wets on the rain day in both.
+    expect(option.germination.checkDate).toBe(option.germination.emergenceDate);
+    expect(option.germination.moistDate).toBe('2027-05-15');
+    expect(w.moisture!.firstMoistDate).toBe('2027-05-15');
   });
 
   it('starts at the forecast for a seeding done before it, and waits for a seeding beyond it', () => {
