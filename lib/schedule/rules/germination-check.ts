@@ -76,16 +76,13 @@ function soilSeries(g: GerminationInput, moistDate: string, days: number) {
     ? `${formatNumber(outlookF, 0)} °F held past the forecast (the mean of its last ${recent.length} days)`
     : `${formatNumber(outlookF, 0)} °F, the middle of the blend's optimum (no forecast for those days)`;
   const temps: number[] = [];
-  const forecastF: number[] = [];
+  const forecast: boolean[] = [];
   for (let i = 1; i <= days; i++) {
     const soilC = fc?.byDate.get(addDays(moistDate, i))?.soilTempC ?? null;
-    if (soilC === null) temps.push(outlookF);
-    else {
-      temps.push(cToF(soilC));
-      forecastF.push(cToF(soilC));
-    }
+    temps.push(soilC === null ? outlookF : cToF(soilC));
+    forecast.push(soilC !== null);
   }
-  return { temps, forecastF, outlookF, outlookWords };
+  return { temps, forecast, outlookF, outlookWords };
 }
 
 export function germinationCheck(g: GerminationInput): GerminationResult {
@@ -126,8 +123,7 @@ export function germinationCheck(g: GerminationInput): GerminationResult {
   const name = getSpecies(slowest.speciesId).name.toLowerCase();
   let emergence = addDays(moistDate, slowest.days);
   let date = addDays(emergence, params.checkDelayDays);
-  const used = series.temps.slice(0, slowest.days);
-  const fromForecast = series.forecastF.slice(0, slowest.days);
+  const fromForecast = series.temps.slice(0, slowest.days).filter((_, i) => series.forecast[i]);
   const range = (values: number[]) => {
     const [lo, hi] = [Math.min(...values), Math.max(...values)].map((v) => formatNumber(v, 0));
     return lo === hi ? `${lo} °F` : `${lo}–${hi} °F`;
@@ -135,7 +131,7 @@ export function germinationCheck(g: GerminationInput): GerminationResult {
   const soilWords =
     fromForecast.length === 0
       ? `soil ${series.outlookWords}`
-      : fromForecast.length >= used.length
+      : fromForecast.length === slowest.days
         ? `forecast soil ${range(fromForecast)}`
         : `forecast soil ${range(fromForecast)}, then ${series.outlookWords}`;
   const steady = daysToEmergence(slowest.speciesId, series.outlookF);
