@@ -100,7 +100,14 @@ export interface SeedZoneMoisture {
 
 export function seedZoneMoisture(
   days: WaterDay[],
-  opts: { texture?: SoilTexture; initialDepletionMm?: number; keMax?: number; soakingRainMm?: number } = {},
+  opts: {
+    texture?: SoilTexture;
+    initialDepletionMm?: number;
+    keMax?: number;
+    soakingRainMm?: number;
+    /** Run the balance over every day but report only from this date on (rain before seeding still wets the soil). */
+    reportFrom?: string;
+  } = {},
 ): SeedZoneMoisture {
   const { readilyEvaporableMm: rew, totalEvaporableMm: tew } = evaporableWater(opts.texture ?? 'loam');
   const keMax = opts.keMax ?? BARE_SOIL_KE_MAX;
@@ -139,13 +146,15 @@ export function seedZoneMoisture(
     out.push({ date: day.date, depletionMm, kr, evaporationMm, moist: depletionMm <= wetDepletionMm + 1e-9 });
   }
 
-  const firstMoist = out.findIndex((d) => d.moist);
-  const firstDry = firstMoist === -1 ? -1 : out.findIndex((d, i) => i > firstMoist && !d.moist);
+  const from = opts.reportFrom;
+  const reported = from ? out.filter((d) => d.date >= from) : out;
+  const firstMoist = reported.findIndex((d) => d.moist);
+  const firstDry = firstMoist === -1 ? -1 : reported.findIndex((d, i) => i > firstMoist && !d.moist);
   return {
-    days: out,
-    moistDays: out.filter((d) => d.moist).length,
-    firstMoistDate: firstMoist === -1 ? null : out[firstMoist].date,
-    firstDryDate: firstDry === -1 ? null : out[firstDry].date,
+    days: reported,
+    moistDays: reported.filter((d) => d.moist).length,
+    firstMoistDate: firstMoist === -1 ? null : reported[firstMoist].date,
+    firstDryDate: firstDry === -1 ? null : reported[firstDry].date,
     readilyEvaporableMm: rew,
     totalEvaporableMm: tew,
     wetDepletionMm,

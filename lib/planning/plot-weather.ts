@@ -345,8 +345,8 @@ function summarize(o: {
     if (moisture) {
       const lead = moisture.startsAtForecast ? 'The seed zone' : `${verb} ${dayWithMonth(seeding.date)}: the seed zone`;
       const n = (count: number) => `${count} day${count === 1 ? '' : 's'}`;
-      // The balance starts dry (as the seeding comparison's does), so rain before seeding does not count.
-      const after = moisture.startsAtForecast ? 'no rain in the forecast soaks it' : 'counted dry at seeding, no rain after it soaks it';
+      // The balance starts air-dry at the forecast's first day (as the plan's and the seeding comparison's do).
+      const after = 'no rain in the forecast soaks it';
       if (!moisture.firstMoistDate) out.push(`${lead} stays dry through ${dayWithMonth(moisture.throughDate)}: ${after}.`);
       else {
         const wets = moisture.firstMoistDate === moisture.fromDate ? 'is moist from the start' : `is dry at first; rain wets it from ${dayWithMonth(moisture.firstMoistDate)}`;

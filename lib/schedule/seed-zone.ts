@@ -6,7 +6,11 @@ import { seedZoneMoisture, type SeedZoneMoisture, type SoilTexture } from '@/lib
 import type { ForecastIndex } from './forecast-days';
 import { addDays, dayOfYear } from './local-dates';
 
-/** From `from` (taken as air-dry) through `through` or the last forecast day; null when the forecast lacks `from`. */
+/**
+ * The seed zone from `from` through `through` (or the last forecast day); null when the forecast lacks `from`. The
+ * balance runs from the forecast's first day, taken as air-dry, so rain in the forecast before `from` (the day before
+ * seeding) has already wetted the soil the seed goes into.
+ */
 export function seedZoneOutlook(
   fc: ForecastIndex,
   from: string,
@@ -15,8 +19,9 @@ export function seedZoneOutlook(
   texture: SoilTexture,
   soakingRainMm?: number,
 ): SeedZoneMoisture | null {
+  if (!fc.firstDate || !fc.byDate.has(from)) return null;
   const waterDays = [];
-  for (let d = from; d <= through; d = addDays(d, 1)) {
+  for (let d = fc.firstDate < from ? fc.firstDate : from; d <= through; d = addDays(d, 1)) {
     const day = fc.byDate.get(d);
     if (!day) break;
     waterDays.push({
@@ -25,5 +30,5 @@ export function seedZoneOutlook(
       et0Mm: et0Hargreaves({ tMaxC: day.airMaxC, tMinC: day.airMinC, latitudeDeg, dayOfYear: dayOfYear(d) }),
     });
   }
-  return waterDays.length ? seedZoneMoisture(waterDays, { texture, soakingRainMm }) : null;
+  return waterDays.length ? seedZoneMoisture(waterDays, { texture, soakingRainMm, reportFrom: from }) : null;
 }

@@ -91,12 +91,14 @@ export function germinationCheck(g: GerminationInput): GerminationResult {
   let moistDate: string;
   let moistWords: string;
   const inForecast = fc && fc.firstDate && fc.lastDate && g.seedDate >= fc.firstDate && g.seedDate <= fc.lastDate;
-  // The seed zone from seeding (taken as air-dry) through the forecast: where it first holds a soaking rain's water.
+  // The seed zone from seeding through the forecast (air-dry at the forecast's start): where it first holds a soaking
+  // rain's water.
   const water = inForecast ? seedZoneOutlook(fc, g.seedDate, fc.lastDate as string, g.latitudeDeg, g.texture, g.soak.soakingRainMm) : null;
   if (inForecast) {
     if (water?.firstMoistDate) {
       moistDate = water.firstMoistDate;
-      moistWords = `the first soaking rain (${shortDay(moistDate)})`;
+      const stillWet = moistDate === g.seedDate && (fc.rainByDate.get(moistDate) ?? 0) < g.soak.soakingRainMm;
+      moistWords = stillWet ? `seeding (${shortDay(moistDate)}) into a seed zone still wet from earlier rain` : `the first soaking rain (${shortDay(moistDate)})`;
     } else {
       moistDate = addDays(fc.lastDate as string, 1);
       moistWords = `a soaking rain, none in the forecast through ${shortDay(fc.lastDate as string)}`;

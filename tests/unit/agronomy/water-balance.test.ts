@@ -125,6 +125,15 @@ describe('seedZoneMoisture', () => {
     expect(() => firstDrySpell(inch, 0)).toThrow(/whole number of days/);
   });
 
+  it('rain before the reported days still wets them: seed sown the day after an inch of rain goes into a wet seed zone', () => {
+    // Same days as the worked inch above, reported from day 2: 5.25 and 10.5 mm (wet), then 14.9625 (dry).
+    const result = seedZoneMoisture(dryingDays(4, 5, { 0: IN }), { texture: 'loam', reportFrom: '2027-09-02' });
+    expect(result.days.map((d) => d.date)).toEqual(['2027-09-02', '2027-09-03', '2027-09-04']);
+    expect(result.firstMoistDate).toBe('2027-09-02');
+    expect(result.firstDryDate).toBe('2027-09-04');
+    expect(result.moistDays).toBe(2);
+  });
+
   it('stage 2 slows drying and depletion never passes TEW (eq. 74; De ≤ TEW)', () => {
     const result = seedZoneMoisture(dryingDays(30, 6), { texture: 'loam', initialDepletionMm: 0 });
     const depletion = result.days.map((d) => d.depletionMm);

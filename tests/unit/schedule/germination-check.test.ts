@@ -87,12 +87,24 @@ describe('germination check', () => {
     expect(warning).toMatch(/from about (Sat 18|Sun 19)/);
   });
 
-  it('waits for the first soaking rain after a seeding into dry weather', () => {
-    // Seeding done Thu 16, after the rain; no later rain in the forecast (through Tue 21): the seed zone is taken to
-    // wet the day after the forecast ends (Wed 22), then 5 days in soil held at the last week's 65 °F → Mon 27.
+  it('counts from seeding when the seed goes into a seed zone still wet from the rain before it', () => {
+    // The balance runs from the forecast's first day: 15 mm on Tue 14 leaves the loam wet on Wed 15 (De ≈ 8 mm, under
+    // TEW − 6.35 = 12.65), so seed sown that day starts at once: 5 days at 65 °F → Mon 20.
     const forecast = makeForecast({ startDate: '2027-09-06', soilTempC: fToC(65), rain: rain(15) });
     const plan = planPlanting(input, forecast, NOW);
-    const done = withStep(plan, 'seed', { status: 'done', doneOn: '2027-09-16' });
+    const done = withStep(plan, 'seed', { status: 'done', doneOn: '2027-09-15' });
+    const check = step(replan(input, done, forecast, NOW).plan, 'check-germination');
+    expect(check.date).toBe('2027-09-20');
+    expect(check.reason).toContain('after seeding (Wed 15) into a seed zone still wet from earlier rain');
+  });
+
+  it('waits for the first soaking rain after a seeding into dry weather', () => {
+    // Seeding done Sun 19, when the Tue 14 rain has dried out of the seed zone; no later rain in the forecast (through
+    // Tue 21): the seed zone is taken to wet the day after the forecast ends (Wed 22), then 5 days in soil held at the
+    // last week's 65 °F → Mon 27.
+    const forecast = makeForecast({ startDate: '2027-09-06', soilTempC: fToC(65), rain: rain(15) });
+    const plan = planPlanting(input, forecast, NOW);
+    const done = withStep(plan, 'seed', { status: 'done', doneOn: '2027-09-19' });
     const { plan: next, changes } = replan(input, done, forecast, NOW);
     const check = step(next, 'check-germination');
     expect(check.date).toBe('2027-09-27');
