@@ -36,7 +36,8 @@ export const GERMINATION_CHECK_SOURCES: Record<keyof GerminationCheckParams, str
   model: `${EMERGENCE_SOURCES.model}; each species calibrated in lib/agronomy/emergence.ts; the blend is up when its slowest species is`,
   outlook:
     `Sowcast's choice, no source: past the forecast the soil is taken to stay at the mean of the forecast's last ${OUTLOOK_DAYS} days ` +
-    '(persistence; no climate normals are stored); with no forecast at all, at the middle of the blend’s optimum band',
+    '(persistence; no climate normals are stored); with no forecast for the weeks after seeding, or for frost-seeded seed waiting ' +
+    'for spring, at the middle of the blend’s optimum band',
   frostSeeding:
     'common practice, no source: frost-seeded clover lies dormant until the soil warms in spring and comes up around the average last frost',
 };
