@@ -452,7 +452,7 @@ function Footnote({ chart }: { chart: PlotWeather }) {
       {chart.days.some((d) => d.soilSource === 'estimated') ? ', estimated from air temperatures on days the provider gives none' : ''}. Spray
       hours are daylight hours with wind {s.windMinMph}–{s.windMaxMph} mph, {s.tempMinF}–{s.tempMaxF} °F and no rain for {s.rainfastHours} h after
       {s.fromLabel && s.productName ? `, from the ${s.productName} label where it says` : ', the defaults when no label says otherwise'}; the label
-      is the law. {chart.moisture ? `The seed zone is the top 10 cm of ${chart.moisture.texture.replace('-', ' ')}, taken as dry at ${chart.moisture.startsAtForecast ? 'the forecast start' : 'seeding'}; it counts as moist while the surface has not begun to dry out.` : ''}
+      is the law. {chart.moisture ? `The seed zone is the top 10 cm of ${chart.moisture.texture.replace('-', ' ')}, taken as dry at the forecast start; it counts as moist from a soaking rain (a quarter inch or more) until it holds less than that much water again, drying at the FAO-56 two-stage rate.` : ''}
     </p>
   );
 }

@@ -2,15 +2,14 @@
 // from the engine's own rules — the seeding is pinned to each date and the plan re-placed around it — so
 // the comparison says what the plan would say.
 import type { Plot, Property } from '@/db/database';
-import { et0Hargreaves } from '@/lib/agronomy/et0';
 import { blendProfile } from '@/lib/agronomy/species';
-import { seedZoneMoisture } from '@/lib/agronomy/water-balance';
 import { indexForecast, inHorizon } from '@/lib/schedule/forecast-days';
-import { addDays, dayOfYear, daysBetween, monthDayInYear } from '@/lib/schedule/local-dates';
+import { addDays, daysBetween, monthDayInYear } from '@/lib/schedule/local-dates';
 import { resolveParameters } from '@/lib/schedule/parameters';
 import { planPlanting, replan } from '@/lib/schedule/plan';
 import { frostBounds } from '@/lib/schedule/rules/frost-deadline';
 import { germinationCheck } from '@/lib/schedule/rules/germination-check';
+import { seedZoneOutlook } from '@/lib/schedule/seed-zone';
 import type { Forecast, RuleDecision } from '@/lib/schedule/types';
 import type { PlantingFormInput } from '@/lib/validations/planting';
 import { buildPlantingInput } from './input';
@@ -24,20 +23,22 @@ export interface SeedingOption {
   germination: {
     /** The day the seed zone is expected to be wet enough to start the seed: the first soaking rain, or the seeding day. */
     moistDate: string;
-    /** Expected emergence: soil degree days above the blend's minimum reach the blend's sum (germination-check rule). */
+    /** Expected emergence: the blend's slowest species is up by the daily rate summation (germination-check rule). */
     emergenceDate: string;
     /** Days from seeding to expected emergence. */
     daysToEmergence: number;
     /** The germination-check step's date in the plan re-placed around this seeding. */
     checkDate: string | null;
-    requiredDegreeDays: number;
+    /** The blend's slowest species to come up (lib/agronomy/emergence.ts), which sets the date. */
+    emergenceSpeciesId: string;
     reason: string;
     warnings: string[];
   };
   /**
    * Seed-zone moisture (FAO-56 surface-layer balance, lib/agronomy/water-balance.ts) from the seeding day to
    * the end of the forecast or to emergence, whichever is first; null when the forecast does not reach the day.
-   * The layer starts dry, so only forecast rain makes it moist.
+   * The layer starts dry, so only forecast rain makes it moist: the same balance the plan's germination check reads
+   * (lib/schedule/seed-zone.ts). moistDays counts every moist day; firstDryDate is the first dry day after it was wet.
    */
   moisture: { fromDate: string; throughDate: string; days: number; moistDays: number; firstDryDate: string | null } | null;
   /**
@@ -107,19 +108,9 @@ export function compareSeedingDates(o: {
     let moisture: SeedingOption['moisture'] = null;
     if (fc && fc.lastDate && inHorizon(fc, seedDate)) {
       const through = emergenceDate < fc.lastDate ? emergenceDate : fc.lastDate;
-      const waterDays = [];
-      for (let d = seedDate; d <= through; d = addDays(d, 1)) {
-        const day = fc.byDate.get(d);
-        if (!day) break;
-        waterDays.push({
-          date: d,
-          rainMm: fc.rainByDate.get(d) ?? 0,
-          et0Mm: et0Hargreaves({ tMaxC: day.airMaxC, tMinC: day.airMinC, latitudeDeg: input.latitudeDeg, dayOfYear: dayOfYear(d) }),
-        });
-      }
-      if (waterDays.length) {
-        const water = seedZoneMoisture(waterDays, { texture });
-        moisture = { fromDate: seedDate, throughDate: waterDays.at(-1)!.date, days: waterDays.length, moistDays: water.moistDays, firstDryDate: water.firstDryDate };
+      const water = seedZoneOutlook(fc, seedDate, through, input.latitudeDeg, texture, soak.soakingRainMm);
+      if (water) {
+        moisture = { fromDate: seedDate, throughDate: water.days.at(-1)!.date, days: water.days.length, moistDays: water.moistDays, firstDryDate: water.firstDryDate };
       }
     }
 
@@ -177,7 +168,7 @@ export function compareSeedingDates(o: {
         emergenceDate,
         daysToEmergence: daysBetween(seedDate, emergenceDate),
         checkDate: plan.steps.find((s) => s.key === 'check-germination')?.date ?? null,
-        requiredDegreeDays: g.requiredDegreeDays,
+        emergenceSpeciesId: g.emergenceSpeciesId,
         reason: g.decision.reason,
         warnings: g.warnings,
       },

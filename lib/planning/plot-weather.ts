@@ -1,16 +1,16 @@
 // The plot's weather chart, read the way the engine reads the forecast: the same local days, rain totals,
 // soil temperatures, spray-window rule and seed-zone water balance the plan was placed with — so the chart
 // shows why seeding sits where it does, never a second opinion. Pure: no database, no clock (`now` is passed).
-import { et0Hargreaves } from '@/lib/agronomy/et0';
 import { blendProfile, getSpecies, type BlendProfile } from '@/lib/agronomy/species';
 import { cToF, fToC, mmToIn } from '@/lib/agronomy/units';
-import { seedZoneMoisture, type SoilTexture } from '@/lib/agronomy/water-balance';
+import type { SoilTexture } from '@/lib/agronomy/water-balance';
 import { sunTimes } from '@/lib/schedule/daylight';
 import { indexForecast, type ForecastIndex } from '@/lib/schedule/forecast-days';
 import { formatNumber, inchesPrecise } from '@/lib/schedule/format';
-import { addDays, dayOfYear, daysBetween, dayWithMonth, localDateOf, shortDay } from '@/lib/schedule/local-dates';
+import { daysBetween, dayWithMonth, localDateOf, shortDay } from '@/lib/schedule/local-dates';
 import { DEFAULT_SCHEDULE_PARAMETERS, resolveParameters, type ScheduleParameters } from '@/lib/schedule/parameters';
 import { soilTemperatureOn, type SoilLevel } from '@/lib/schedule/rules/soil-temperature';
+import { seedZoneOutlook } from '@/lib/schedule/seed-zone';
 import { evaluateSprayHour, sprayDay, sprayLimits, type SprayContext, type SprayDay } from '@/lib/schedule/rules/spray-window';
 import type { Forecast, PlanStep, PlantingInput, StepStatus } from '@/lib/schedule/types';
 
@@ -79,10 +79,11 @@ export interface PlotWeather {
     fromDate: string;
     throughDate: string;
     days: number;
-    /** Days moist from the first on (FAO-56 stage 1), until the layer first dries. */
+    /** Days moist in all: the layer holds at least a soaking rain's water above air-dry (water-balance.ts). */
     moistDays: number;
+    /** The first dry day after the seed zone was first wet. */
     firstDryDate: string | null;
-    /** The first moist day, and how many days are moist in all (rain may wet a layer that started dry). */
+    /** The first moist day, and how many days are moist in all (the same count as moistDays). */
     firstMoistDate: string | null;
     moistDaysInAll: number;
     /** Seeding came before the forecast's first day, so the balance starts there instead. */
@@ -154,25 +155,6 @@ export function forecastFreshness(o: { fetchedAt: string; now: Date; failingSinc
   };
 }
 
-/**
- * Seed-zone moisture day by day (FAO-56 surface layer, lib/agronomy/water-balance.ts) from `from` through
- * `through`, with rain per local day and Hargreaves ET₀ from the day's air temperatures — as the seeding
- * comparison computes it (lib/planning/compare-seeding.ts). The layer starts dry.
- */
-export function seedZoneOutlook(fc: ForecastIndex, from: string, through: string, latitudeDeg: number, texture: SoilTexture) {
-  const waterDays = [];
-  for (let d = from; d <= through; d = addDays(d, 1)) {
-    const day = fc.byDate.get(d);
-    if (!day) break;
-    waterDays.push({
-      date: d,
-      rainMm: fc.rainByDate.get(d) ?? 0,
-      et0Mm: et0Hargreaves({ tMaxC: day.airMaxC, tMinC: day.airMinC, latitudeDeg, dayOfYear: dayOfYear(d) }),
-    });
-  }
-  return waterDays.length ? seedZoneMoisture(waterDays, { texture }) : null;
-}
-
 export function plotWeather(o: {
   forecast: Forecast;
   /** The property: its IANA zone and where it lies (daylight for the spray window, ET₀). */
@@ -216,7 +198,7 @@ export function plotWeather(o: {
   if (seedDate && fc.firstDate && fc.lastDate && seedDate <= fc.lastDate) {
     const startsAtForecast = seedDate < fc.firstDate;
     const from = startsAtForecast ? fc.firstDate : seedDate;
-    const water = seedZoneOutlook(fc, from, fc.lastDate, place.latitudeDeg, texture);
+    const water = seedZoneOutlook(fc, from, fc.lastDate, place.latitudeDeg, texture, soak.soakingRainMm);
     if (water) {
       for (const d of water.days) moistureByDate.set(d.date, { state: d.moist ? 'moist' : 'dry', depletionMm: d.depletionMm });
       moisture = {
@@ -225,8 +207,8 @@ export function plotWeather(o: {
         days: water.days.length,
         moistDays: water.moistDays,
         firstDryDate: water.firstDryDate,
-        firstMoistDate: water.days.find((d) => d.moist)?.date ?? null,
-        moistDaysInAll: water.days.filter((d) => d.moist).length,
+        firstMoistDate: water.firstMoistDate,
+        moistDaysInAll: water.moistDays,
         startsAtForecast,
         texture,
         readilyEvaporableMm: water.readilyEvaporableMm,
@@ -363,14 +345,14 @@ function summarize(o: {
     if (moisture) {
       const lead = moisture.startsAtForecast ? 'The seed zone' : `${verb} ${dayWithMonth(seeding.date)}: the seed zone`;
       const n = (count: number) => `${count} day${count === 1 ? '' : 's'}`;
-      // The balance starts dry (as the seeding comparison's does), so rain before seeding does not count.
-      const after = moisture.startsAtForecast ? 'no rain in the forecast soaks it' : 'counted dry at seeding, no rain after it soaks it';
+      // The balance starts air-dry at the forecast's first day (as the plan's and the seeding comparison's do).
+      const after = 'no rain in the forecast soaks it';
       if (!moisture.firstMoistDate) out.push(`${lead} stays dry through ${dayWithMonth(moisture.throughDate)}: ${after}.`);
-      else if (moisture.moistDays === 0) {
-        out.push(`${lead} is dry at first; rain wets it from ${dayWithMonth(moisture.firstMoistDate)} (${n(moisture.moistDaysInAll)} moist through ${dayWithMonth(moisture.throughDate)}).`);
-      } else if (moisture.firstDryDate) {
-        out.push(`${lead} is moist ${n(moisture.moistDays)}, dry again from ${dayWithMonth(moisture.firstDryDate)}.`);
-      } else out.push(`${lead} stays moist through ${dayWithMonth(moisture.throughDate)}, the end of the forecast.`);
+      else {
+        const wets = moisture.firstMoistDate === moisture.fromDate ? 'is moist from the start' : `is dry at first; rain wets it from ${dayWithMonth(moisture.firstMoistDate)}`;
+        const dries = moisture.firstDryDate ? `dry again from ${dayWithMonth(moisture.firstDryDate)}` : `moist through ${dayWithMonth(moisture.throughDate)}, the end of the forecast`;
+        out.push(`${lead} ${wets} (${n(moisture.moistDays)} moist in all), ${dries}.`);
+      }
     }
   }
 

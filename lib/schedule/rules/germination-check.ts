@@ -1,38 +1,43 @@
-// Germination check: the day to walk the plot and look for seedlings. Seed starts once the seed zone has had
-// its first soaking rain; from then it needs a roughly constant amount of warmth — soil degree days above
-// the blend's minimum — so cool soil pushes the check later and warm soil brings it closer.
-import { et0Hargreaves } from '@/lib/agronomy/et0';
-import { growingDegreeDays } from '@/lib/agronomy/gdd';
-import type { BlendProfile } from '@/lib/agronomy/species';
+// Germination check: the day to walk the plot and look for seedlings. Seed starts once the seed zone is wet (the
+// FAO-56 seed-zone balance, lib/agronomy/water-balance.ts, wetted by a soaking rain); from then each day brings every
+// species of the blend 1 / daysToEmergence(soil °F) of the way up (lib/agronomy/emergence.ts), and the check goes on
+// the day the slowest species is up. Past the forecast the soil is taken to stay as the forecast's last week.
+import { daysToEmergence, emergenceDay, EMERGENCE_SOURCES } from '@/lib/agronomy/emergence';
+import { getSpecies, type BlendProfile } from '@/lib/agronomy/species';
 import { cToF } from '@/lib/agronomy/units';
-import { seedZoneMoisture, type SoilTexture } from '@/lib/agronomy/water-balance';
-import { hourIndexAfter, localInstantMs, type ForecastIndex } from '../forecast-days';
+import { firstDrySpell, type SoilTexture } from '@/lib/agronomy/water-balance';
+import type { ForecastIndex } from '../forecast-days';
 import { formatNumber } from '../format';
-import { addDays, dayOfYear, dayPair, maxDate, shortDay } from '../local-dates';
+import { addDays, dayPair, maxDate, shortDay } from '../local-dates';
+import { seedZoneOutlook } from '../seed-zone';
 import type { RuleDecision } from '../types';
 import type { SeedBeforeRainParams } from './seed-before-rain';
 
 export interface GerminationCheckParams {
-  /** Look after this many days even if the degree days are not reached: a dormant or failed seeding shows by then. */
+  /** Look after this many days even if the seedlings are not expected yet: a dormant or failed seeding shows by then. */
   maxDaysAfterMoisture: number;
   /** Days after expected emergence before the check, so seedlings are big enough to count. */
   checkDelayDays: number;
-  /** Days in a row with a dry seed-zone surface that count as a dry spell. */
+  /** Days in a row with a dry seed zone that count as a dry spell. */
   drySpellDays: number;
 }
 
 export const GERMINATION_CHECK_DEFAULTS: GerminationCheckParams = { maxDaysAfterMoisture: 45, checkDelayDays: 0, drySpellDays: 3 };
 
-export const GERMINATION_CHECK_SOURCES: Record<keyof GerminationCheckParams, string> & { model: string; frostSeeding: string } = {
+/** Days at the end of the forecast whose mean soil temperature is carried past it. */
+const OUTLOOK_DAYS = 7;
+
+export const GERMINATION_CHECK_SOURCES: Record<keyof GerminationCheckParams, string> & { model: string; outlook: string; frostSeeding: string } = {
   maxDaysAfterMoisture: "Sowcast's cap, no source: by six weeks a seeding has come up, is dormant in cold soil, or has failed",
-  checkDelayDays: "Sowcast's default: the blend's days to emergence already take its slowest species' upper end",
+  checkDelayDays: "Sowcast's default: the days to emergence are medians, so the check goes on the day itself",
   drySpellDays:
-    "Sowcast's default, no source: three days in a row with the seed-zone surface past its readily evaporable water (FAO-56 stage 2, lib/agronomy/water-balance.ts)",
-  model:
-    'thermal time for seedling emergence: seedlings emerge when soil degree days above a base temperature reach a constant sum ' +
-    '(Angus, Cunningham, Moncur & Mackenzie 1981, Field Crops Research 3:365–378 — from memory). Sowcast takes the base as the blend’s ' +
-    'germination minimum and the sum as days to emergence at the optimum × (optimum midpoint − base), with the optimum band’s top as ' +
-    'an upper cap (the modified degree-day method); days past the forecast count at the optimum. This calibration is Sowcast’s own.',
+    "Sowcast's default, no source: three days in a row with the seed zone dry — holding less than a soaking rain's water above air-dry " +
+    '(FAO-56 two-stage evaporation, lib/agronomy/water-balance.ts) — after it was first wet',
+  model: `${EMERGENCE_SOURCES.model}; each species calibrated in lib/agronomy/emergence.ts; the blend is up when its slowest species is`,
+  outlook:
+    `Sowcast's choice, no source: past the forecast the soil is taken to stay at the mean of the forecast's last ${OUTLOOK_DAYS} days ` +
+    '(persistence; no climate normals are stored); with no forecast for the weeks after seeding, or for frost-seeded seed waiting ' +
+    'for spring, at the middle of the blend’s optimum band',
   frostSeeding:
     'common practice, no source: frost-seeded clover lies dormant until the soil warms in spring and comes up around the average last frost',
 };
@@ -54,37 +59,50 @@ export interface GerminationResult {
   moistDate: string;
   decision: RuleDecision;
   warnings: string[];
-  requiredDegreeDays: number;
+  /** The blend's slowest species to come up, which sets the date. */
+  emergenceSpeciesId: string;
 }
 
-/** The first soaking rain on or after seeding: the date it has delivered the soaking amount. */
-function soakingDate(fc: ForecastIndex, seedDate: string, soak: SeedBeforeRainParams): { date: string; startDate: string } | null {
-  const fromMs = localInstantMs(fc, seedDate, '00:00');
-  const event = fc.rainEvents.find((e) => e.qualifies && e.startMs >= fromMs);
-  if (!event) return null;
-  let sum = 0;
-  for (let i = hourIndexAfter(fc.hours, event.startMs); i < fc.hours.length; i++) {
-    sum += fc.hours[i].rainMm;
-    if (sum >= soak.soakingRainMm) return { date: fc.hours[i].rainDate, startDate: event.startDate };
+/** Soil °F for each day after the seed zone is wet: the forecast's, then the outlook's. */
+function soilSeries(g: GerminationInput, moistDate: string, days: number) {
+  const fc = g.fc;
+  const known = (fc?.days ?? []).filter((d) => d.soilTempC !== null);
+  const recent = known.slice(-OUTLOOK_DAYS);
+  const [optLow, optHigh] = g.profile.optimumSoilTempF;
+  // Persistence only reaches a little past the forecast; a seeding months out is counted at the blend's optimum, and so
+  // is frost-seeded seed, which waits in cold ground for spring warmth rather than for winter soil to hold.
+  const persists = !g.frostSeeding && recent.length > 0 && fc?.lastDate && moistDate <= addDays(fc.lastDate, 1);
+  const outlookF = persists ? recent.reduce((sum, d) => sum + cToF(d.soilTempC as number), 0) / recent.length : (optLow + optHigh) / 2;
+  const outlookWords = persists
+    ? `${formatNumber(outlookF, 0)} °F held past the forecast (the mean of its last ${recent.length} days)`
+    : `${formatNumber(outlookF, 0)} °F, the middle of the blend's optimum (no forecast for those days)`;
+  const temps: number[] = [];
+  const forecast: boolean[] = [];
+  for (let i = 1; i <= days; i++) {
+    const soilC = fc?.byDate.get(addDays(moistDate, i))?.soilTempC ?? null;
+    temps.push(soilC === null ? outlookF : cToF(soilC));
+    forecast.push(soilC !== null);
   }
-  return { date: event.startDate, startDate: event.startDate };
+  return { temps, forecast, outlookF, outlookWords };
 }
 
 export function germinationCheck(g: GerminationInput): GerminationResult {
   const { fc, profile, params } = g;
   const warnings: string[] = [];
   let moistDate: string;
-  let waterStart: string | null = null;
   let moistWords: string;
-  if (fc && fc.firstDate && fc.lastDate && g.seedDate >= fc.firstDate && g.seedDate <= fc.lastDate) {
-    const soaking = soakingDate(fc, g.seedDate, g.soak);
-    if (soaking) {
-      moistDate = soaking.date;
-      waterStart = soaking.startDate;
-      moistWords = `the first soaking rain (${shortDay(moistDate)})`;
+  const inForecast = fc && fc.firstDate && fc.lastDate && g.seedDate >= fc.firstDate && g.seedDate <= fc.lastDate;
+  // The seed zone from seeding through the forecast (air-dry at the forecast's start): where it first holds a soaking
+  // rain's water.
+  const water = inForecast ? seedZoneOutlook(fc, g.seedDate, fc.lastDate as string, g.latitudeDeg, g.texture, g.soak.soakingRainMm) : null;
+  if (inForecast) {
+    if (water?.firstMoistDate) {
+      moistDate = water.firstMoistDate;
+      const stillWet = moistDate === g.seedDate && (fc.rainByDate.get(moistDate) ?? 0) < g.soak.soakingRainMm;
+      moistWords = stillWet ? `seeding (${shortDay(moistDate)}) into a seed zone still wet from earlier rain` : `the first soaking rain (${shortDay(moistDate)})`;
     } else {
-      moistDate = addDays(fc.lastDate, 1);
-      moistWords = `a soaking rain, none in the forecast through ${shortDay(fc.lastDate)}`;
+      moistDate = addDays(fc.lastDate as string, 1);
+      moistWords = `a soaking rain, none in the forecast through ${shortDay(fc.lastDate as string)}`;
       warnings.push(`No soaking rain is forecast after seeding; seed on dry ground waits for rain, so the check counts from ${shortDay(moistDate)}.`);
     }
   } else if (fc && fc.firstDate && g.seedDate < fc.firstDate) {
@@ -95,40 +113,36 @@ export function germinationCheck(g: GerminationInput): GerminationResult {
     moistWords = 'the seeding date (seeding is timed ahead of rain)';
   }
 
-  const base = profile.minSoilTempF;
-  const [optLow, optHigh] = profile.optimumSoilTempF;
-  const reference = Math.max((optLow + optHigh) / 2, base + 1);
-  const referenceRate = reference - base;
-  const daysAtOptimum = profile.daysToEmergence[1];
-  const required = daysAtOptimum * referenceRate;
-  const capOpts = optHigh > base ? { base, upperCap: optHigh } : { base };
-  let sum = 0;
-  let days = 0;
-  let forecastDays = 0;
-  // Round-trip °C → °F leaves float noise (65 °F comes back as 64.999…); it must not cost a day.
-  const reached = () => sum >= required - 1e-9;
-  while (!reached() && days < params.maxDaysAfterMoisture) {
-    days += 1;
-    const d = addDays(moistDate, days);
-    const soilC = fc?.byDate.get(d)?.soilTempC ?? null;
-    if (soilC !== null) {
-      const f = cToF(soilC);
-      sum += growingDegreeDays(f, f, capOpts);
-      forecastDays += 1;
-    } else sum += referenceRate;
+  const series = soilSeries(g, moistDate, params.maxDaysAfterMoisture);
+  let slowest = { speciesId: profile.parts[0].speciesId, days: 0 };
+  let capped = false;
+  for (const { speciesId } of profile.parts) {
+    const days = emergenceDay(speciesId, series.temps);
+    if (days === null) {
+      if (!capped) slowest = { speciesId, days: params.maxDaysAfterMoisture };
+      capped = true;
+    } else if (!capped && days > slowest.days) slowest = { speciesId, days };
   }
-  const capped = !reached();
-  let emergence = addDays(moistDate, days);
+  const name = getSpecies(slowest.speciesId).name.toLowerCase();
+  let emergence = addDays(moistDate, slowest.days);
   let date = addDays(emergence, params.checkDelayDays);
-  const pace =
-    forecastDays === 0
-      ? `${days} days at the blend's optimum`
-      : days === daysAtOptimum
-        ? `${days} days, as at the blend's optimum`
-        : `${days} days at the forecast soil warmth (${daysAtOptimum} at the optimum)`;
-  let reason = `seedlings expected after ${formatNumber(required, 0)} soil degree days above ${base} °F from ${moistWords}: ${pace}`;
+  const fromForecast = series.temps.slice(0, slowest.days).filter((_, i) => series.forecast[i]);
+  const range = (values: number[]) => {
+    const [lo, hi] = [Math.min(...values), Math.max(...values)].map((v) => formatNumber(v, 0));
+    return lo === hi ? `${lo} °F` : `${lo}–${hi} °F`;
+  };
+  const soilWords =
+    fromForecast.length === 0
+      ? `soil ${series.outlookWords}`
+      : fromForecast.length === slowest.days
+        ? `forecast soil ${range(fromForecast)}`
+        : `forecast soil ${range(fromForecast)}, then ${series.outlookWords}`;
+  const steady = daysToEmergence(slowest.speciesId, series.outlookF);
+  const steadyWords = Number.isFinite(steady) ? `; ${name} takes about ${formatNumber(steady, 0)} days at a steady ${formatNumber(series.outlookF, 0)} °F` : '';
+  const blendWords = profile.parts.length > 1 ? `, ${name} the slowest of the blend` : '';
+  let reason = `seedlings expected ${slowest.days} days after ${moistWords}${blendWords}: ${soilWords}${steadyWords}`;
   if (capped) {
-    reason = `soil too cool to reach ${formatNumber(required, 0)} degree days above ${base} °F within ${params.maxDaysAfterMoisture} days of ${moistWords}; look anyway`;
+    reason = `soil too cool for ${name} to come up within ${params.maxDaysAfterMoisture} days of ${moistWords}: ${soilWords}; look anyway`;
     warnings.push(`Cool soil may hold the seed back; check on ${shortDay(date)} and again as it warms.`);
   }
   if (g.frostSeeding && g.lastSpringFrost && g.lastSpringFrost > date) {
@@ -137,37 +151,21 @@ export function germinationCheck(g: GerminationInput): GerminationResult {
     reason = `frost-seeded seed comes up as the soil warms in spring, around the average last frost (${shortDay(g.lastSpringFrost)})`;
   }
 
-  if (fc && waterStart) {
-    const waterDays = [];
-    for (let d = waterStart; d <= emergence && fc.byDate.has(d) && (fc.lastDate === null || d <= fc.lastDate); d = addDays(d, 1)) {
-      const day = fc.byDate.get(d)!;
-      waterDays.push({
-        date: d,
-        rainMm: fc.rainByDate.get(d) ?? 0,
-        et0Mm: et0Hargreaves({ tMaxC: day.airMaxC, tMinC: day.airMinC, latitudeDeg: g.latitudeDeg, dayOfYear: dayOfYear(d) }),
-      });
-    }
-    if (waterDays.length) {
-      const water = seedZoneMoisture(waterDays, { texture: g.texture });
-      const firstMoist = water.days.findIndex((d) => d.moist);
-      let spellStart = -1;
-      for (let i = Math.max(0, firstMoist); firstMoist >= 0 && i + params.drySpellDays <= water.days.length; i++) {
-        if (water.days.slice(i, i + params.drySpellDays).every((d) => !d.moist)) {
-          spellStart = i;
-          break;
-        }
-      }
-      if (spellStart >= 0 && water.days[spellStart].date < emergence) {
-        const [dry, up] = dayPair(water.days[spellStart].date, emergence);
-        warnings.push(`A dry spell from about ${dry} may dry the seed zone before seedlings are up (about ${up}); sprouted seed can die in it.`);
-      }
+  if (water) {
+    const beforeEmergence = { ...water, days: water.days.filter((d) => d.date <= emergence) };
+    const spell = firstDrySpell(beforeEmergence, params.drySpellDays);
+    if (spell && spell.startDate < emergence) {
+      const [dry, up] = dayPair(spell.startDate, emergence);
+      warnings.push(
+        `The seed zone dries out from about ${dry} (${params.drySpellDays} days or more without a soaking rain's water left) before seedlings are up (about ${up}); sprouted seed can die in it.`,
+      );
     }
   }
 
   return {
     date,
     moistDate,
-    requiredDegreeDays: required,
+    emergenceSpeciesId: slowest.speciesId,
     warnings,
     decision: { rule: 'germination-check', ok: !capped, reason },
   };

@@ -1,5 +1,6 @@
 // Seed before rain: broadcast seed lies on the surface until rain settles it into the soil, so seeding goes
 // in the day or two before a soaking rain — and not right before a downpour that would wash it off.
+import { SOAKING_RAIN_MM, SOAKING_RAIN_SOURCE } from '@/lib/agronomy/water-balance';
 import { addDays, shortDay } from '../local-dates';
 import { localInstantMs, rainInInterval, type ForecastIndex, type RainEvent } from '../forecast-days';
 import { formatNumber, inchesOfRain, inchesPrecise } from '../format';
@@ -19,7 +20,7 @@ export interface SeedBeforeRainParams {
 }
 
 export const SEED_BEFORE_RAIN_DEFAULTS: SeedBeforeRainParams = {
-  soakingRainMm: 6.35, // 0.25 in
+  soakingRainMm: SOAKING_RAIN_MM, // 0.25 in; also the seed zone's "wet" in lib/agronomy/water-balance.ts
   soakingWindowHours: 72,
   leadMaxHours: 48,
   washoutDayMm: 50.8, // 2 in
@@ -29,8 +30,7 @@ export const SEED_BEFORE_RAIN_DEFAULTS: SeedBeforeRainParams = {
 };
 
 export const SEED_BEFORE_RAIN_SOURCES: Record<keyof SeedBeforeRainParams, string> = {
-  soakingRainMm:
-    'common practice, no source: about a quarter inch (6.35 mm) of rain settles broadcast seed into the surface and starts germination',
+  soakingRainMm: SOAKING_RAIN_SOURCE,
   soakingWindowHours: 'common practice, no source: the quarter inch may come over up to three days',
   leadMaxHours:
     'common practice, no source: seed left on the surface more than about two days before rain is lost to birds and drying',

@@ -158,11 +158,11 @@ describe('plotWeather: seed-zone moisture after seeding', () => {
     expect(w.seeding).toMatchObject({ date: '2027-05-14', status: 'planned', inForecast: true, reason: 'ahead of the rain on Fri 14' });
   });
 
-  it('stays dry with no rain after seeding (the layer starts dry)', () => {
+  it('stays dry with no rain in the forecast (the layer starts air-dry at the forecast start)', () => {
     const w = plotWeather({ forecast: forecast(), place: PLACE, planting: { input: soybeans(), steps: [seedStep('2027-05-14')] }, now: NOW });
     expect(w.moisture!.firstMoistDate).toBeNull();
     expect(w.days.filter((d) => d.date >= '2027-05-14').every((d) => d.moisture?.state === 'dry')).toBe(true);
-    expect(w.summary).toContain(`Seeding planned ${intlDay('2027-05-14', true)}: the seed zone stays dry through ${intlDay('2027-05-25', true)}: counted dry at seeding, no rain after it soaks it.`);
+    expect(w.summary).toContain(`Seeding planned ${intlDay('2027-05-14', true)}: the seed zone stays dry through ${intlDay('2027-05-25', true)}: no rain in the forecast soaks it.`);
   });
 
   it('agrees with the seeding comparison for the same date', () => {
@@ -178,6 +178,11 @@ describe('plotWeather: seed-zone moisture after seeding', () => {
     expect(w.moisture!.fromDate).toBe(option.moisture!.fromDate);
     expect(w.moisture!.moistDays).toBe(option.moisture!.moistDays);
     expect(w.moisture!.firstDryDate).toBe(option.moisture!.firstDryDate);
+    // The comparison's own germination reading is the plan's: its check date is the emergence it reports (no delay
+    // by default), and the seed zone wets on the rain day in both.
+    expect(option.germination.checkDate).toBe(option.germination.emergenceDate);
+    expect(option.germination.moistDate).toBe('2027-05-15');
+    expect(w.moisture!.firstMoistDate).toBe('2027-05-15');
   });
 
   it('starts at the forecast for a seeding done before it, and waits for a seeding beyond it', () => {
