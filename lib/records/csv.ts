@@ -1,14 +1,12 @@
 // The application records as CSV (RFC 4180, written by papaparse): one row per record — corrected originals
 // included and marked — and every stored field, so the file is the record a regulator or a landowner keeps.
 import { formatInTimeZone } from 'date-fns-tz';
-import Papa from 'papaparse';
+import { toCsv, type CsvCell } from '@/lib/csv';
 import type { ApplicationRecordDto } from '@/lib/data/application-records';
-
-type Cell = string | number | boolean | null;
 
 export interface CsvColumn {
   header: string;
-  value: (r: ApplicationRecordDto) => Cell;
+  value: (r: ApplicationRecordDto) => CsvCell;
 }
 
 /** The columns, in order. Instants are ISO 8601; the local date and time are given with the zone they are in. */
@@ -51,18 +49,11 @@ export const RECORD_CSV_COLUMNS: readonly CsvColumn[] = [
   { header: 'recorded_at_utc', value: (r) => r.recordedAt },
 ];
 
-/**
- * The CSV text. Text that a spreadsheet would run as a formula (starting with = + - @, tab or CR) gets a
- * leading apostrophe — papaparse's escapeFormulae, after OWASP's advice on CSV injection; numbers are
- * written as numbers and never escaped.
- */
+/** The CSV text; a text cell that starts like a formula is escaped (lib/csv.ts, after OWASP "CSV Injection"). */
 export function recordsToCsv(records: readonly ApplicationRecordDto[]): string {
-  return Papa.unparse(
-    {
-      fields: RECORD_CSV_COLUMNS.map((c) => c.header),
-      data: records.map((r) => RECORD_CSV_COLUMNS.map((c) => c.value(r) ?? '')),
-    },
-    { newline: '\r\n', escapeFormulae: true },
+  return toCsv(
+    RECORD_CSV_COLUMNS.map((c) => c.header),
+    records.map((r) => RECORD_CSV_COLUMNS.map((c) => c.value(r))),
   );
 }
 

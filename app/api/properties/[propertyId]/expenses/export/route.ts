@@ -1,5 +1,5 @@
-import Papa from 'papaparse';
 import { requireRole } from '@/lib/auth/roles';
+import { toCsv } from '@/lib/csv';
 import { costReport } from '@/lib/data/expenses';
 import { getProperty } from '@/lib/data/properties';
 import { notFound, route } from '@/lib/http';
@@ -11,8 +11,8 @@ const centsText = (cents: number) => (cents / 100).toFixed(2);
 
 /**
  * The expenses as CSV (RFC 4180, written by papaparse), one row per expense, amounts as plain decimal dollars
- * so a spreadsheet can add them. Cells that start like a formula are escaped (papaparse escapeFormulae), so
- * a description cannot run as a formula when the file is opened.
+ * so a spreadsheet can add them. A text cell that starts like a formula is escaped (lib/csv.ts), so a
+ * description cannot run as a formula when the file is opened, even one that goes on over several lines.
  */
 export const GET = route(async (request, { params }: Context) => {
   const { propertyId } = await params;
@@ -21,22 +21,19 @@ export const GET = route(async (request, { params }: Context) => {
   const [report, property] = await Promise.all([costReport(propertyId, filter), getProperty(propertyId)]);
   if (!property) throw notFound();
   const names = new Map([...report.sharers, ...report.others].map((p) => [p.id, p.name]));
-  const rows = report.expenses.map((e) => ({
-    Date: e.spentOn,
-    Season: e.season,
-    Year: e.year,
-    Plot: e.plotName ?? 'Whole property',
-    Category: EXPENSE_CATEGORY_LABELS[e.category],
-    Description: e.description,
-    'Amount (USD)': centsText(e.amountCents),
-    'Labour hours': e.labourHours ?? '',
-    'Paid by': e.paidByName ?? 'A former member',
-    'Split among': e.splitAmong.length ? e.splitAmong.map((id) => names.get(id) ?? 'A former member').join('; ') : 'Everyone who shares costs',
-  }));
-  const csv = Papa.unparse(
-    { fields: ['Date', 'Season', 'Year', 'Plot', 'Category', 'Description', 'Amount (USD)', 'Labour hours', 'Paid by', 'Split among'], data: rows },
-    { escapeFormulae: true, newline: '\r\n' },
-  );
+  const rows = report.expenses.map((e) => [
+    e.spentOn,
+    e.season,
+    e.year,
+    e.plotName ?? 'Whole property',
+    EXPENSE_CATEGORY_LABELS[e.category],
+    e.description,
+    centsText(e.amountCents),
+    e.labourHours ?? '',
+    e.paidByName ?? 'A former member',
+    e.splitAmong.length ? e.splitAmong.map((id) => names.get(id) ?? 'A former member').join('; ') : 'Everyone who shares costs',
+  ]);
+  const csv = toCsv(['Date', 'Season', 'Year', 'Plot', 'Category', 'Description', 'Amount (USD)', 'Labour hours', 'Paid by', 'Split among'], rows);
   const slug = property.name.toLowerCase().replace(/[^a-z0-9]+/g, '-').replace(/^-|-$/g, '') || 'property';
   const season = filter.season && filter.year ? `-${filter.season}-${filter.year}` : '';
   return new Response(csv, {
