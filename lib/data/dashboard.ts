@@ -1,3 +1,4 @@
+import { sql } from 'kysely';
 import { getDb } from '@/db';
 import { calendarSteps } from '@/lib/data/calendar';
 import { calendarEvents, type CalendarEvent } from '@/lib/planning/calendar-events';
@@ -44,6 +45,8 @@ export interface StaleForecast {
 }
 
 export interface Dashboard {
+  /** When this answer was made: what the page reports as seen (POST /api/dashboard/visit). */
+  asOf: string;
   /** The instant "moved since" counts from: the previous visit, or the first-visit lookback. */
   since: string;
   firstVisit: boolean;
@@ -56,16 +59,22 @@ export interface Dashboard {
 
 const iso = (v: Date | string | null) => (v === null ? null : new Date(v).toISOString());
 
+/** The person's last recorded dashboard visit (null before the first). Reading it changes nothing. */
+export async function lastDashboardVisit(userId: string): Promise<Date | null> {
+  const row = await getDb().selectFrom('users').select('last_seen_at').where('id', '=', userId).executeTakeFirst();
+  return row?.last_seen_at ? new Date(row.last_seen_at) : null;
+}
+
 /**
- * Marks this visit and returns the one before it, in one transaction so two tabs opening at once both
- * read the same previous visit rather than one of them seeing "just now".
+ * Marks the dashboard as seen up to `seenAt` (the instant the dashboard the person read was made). Never
+ * moves backwards, so a slow tab reporting an older view cannot bring back moves already shown.
  */
-export async function recordDashboardVisit(userId: string, at: Date): Promise<Date | null> {
-  return getDb().transaction().execute(async (trx) => {
-    const row = await trx.selectFrom('users').select('last_seen_at').where('id', '=', userId).forUpdate().executeTakeFirst();
-    await trx.updateTable('users').set({ last_seen_at: at }).where('id', '=', userId).execute();
-    return row?.last_seen_at ? new Date(row.last_seen_at) : null;
-  });
+export async function recordDashboardVisit(userId: string, seenAt: Date): Promise<void> {
+  await getDb()
+    .updateTable('users')
+    .set({ last_seen_at: sql<Date>`greatest(coalesce(last_seen_at, ${seenAt}), ${seenAt})` })
+    .where('id', '=', userId)
+    .execute();
 }
 
 /** The local date of `now` in each zone asked for, worked out once per zone (date-fns-tz is slow per call). */
@@ -186,9 +195,12 @@ async function staleForecasts(userId: string): Promise<StaleForecast[]> {
   });
 }
 
-/** What a person should see first after signing in; also records the visit. */
+/**
+ * What a person should see first after signing in. Side-effect free: the page marks it seen afterwards with
+ * POST /api/dashboard/visit and `asOf`, so a GET from a link on another site changes nothing.
+ */
 export async function dashboardFor(userId: string, now: Date): Promise<Dashboard> {
-  const previousVisit = await recordDashboardVisit(userId, now);
+  const previousVisit = await lastDashboardVisit(userId);
   const since = previousVisit ?? new Date(now.getTime() - FIRST_VISIT_LOOKBACK_DAYS * 86_400_000);
   const [{ today, thisWeek }, moves, germination, stale] = await Promise.all([
     myUpcomingSteps(userId, now),
@@ -196,5 +208,5 @@ export async function dashboardFor(userId: string, now: Date): Promise<Dashboard
     germinationDue(userId, now),
     staleForecasts(userId),
   ]);
-  return { since: since.toISOString(), firstVisit: previousVisit === null, today, thisWeek, moves, germination, staleForecasts: stale };
+  return { asOf: now.toISOString(), since: since.toISOString(), firstVisit: previousVisit === null, today, thisWeek, moves, germination, staleForecasts: stale };
 }

@@ -9,7 +9,7 @@ import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { sql, type Kysely } from 'kysely';
 import type { Database } from '@/db/database';
 import {
-  addMember, Client, createPlot, createProperty, invite, plotBody, propertyBody, signedInUser, uniqueEmail,
+  addMember, baseUrl, Client, createPlot, createProperty, invite, plotBody, propertyBody, signedInUser, uniqueEmail,
   type ApiResponse, type RequestOptions, type TestUser,
 } from '../support/http';
 import { countPlotsOf, testDb } from '../support/db';
@@ -806,6 +806,17 @@ const CASES: Case[] = [
     },
   },
   {
+    // Marking the dashboard seen is the person's own business: any signed-in person, only their own row.
+    method: 'POST',
+    route: '/api/dashboard/visit',
+    expect: anySignedIn(204),
+    target: () => ({ path: '/api/dashboard/visit', body: { seenAt: new Date().toISOString() } }),
+    check: async (_res, fx, actor) => {
+      const row = await fx.db.selectFrom('users').select('last_seen_at').where('id', '=', fx.people[actor as Exclude<Actor, 'signedOut'>].user.id).executeTakeFirstOrThrow();
+      expect(row.last_seen_at).not.toBeNull();
+    },
+  },
+  {
     // Everyone signed in gets their phone list; it holds only steps of their own properties where they may
     // work — a viewer's list has none of A's unassigned steps (my-steps.test.ts).
     method: 'GET',
@@ -1206,6 +1217,29 @@ describe('role matrix: every route handler, every kind of person', () => {
           }
         });
       }
+    });
+  }
+});
+
+describe('same-site request forgery: every state-changing route, sent by the owner’s browser from another page', () => {
+  // A page on a sibling port (or subdomain) is "same site", so the session cookie goes along; the Origin
+  // header names the page (Fetch Standard, "origin header"). OWASP CSRF Prevention Cheat Sheet: verify it.
+  const SIBLING = { origin: new URL(baseUrl()).origin.replace(/:(\d+)$/, (_m, port) => `:${Number(port) + 1}`) };
+  for (const c of CASES.filter((k) => k.method !== 'GET')) {
+    it(`${c.method} ${c.route}: 403 from another origin, 415 for a JSON body as text/plain, nothing changed`, async () => {
+      const target = await c.target(fx, 'owner');
+      const before = c.snapshot ? await c.snapshot(fx, target) : undefined;
+      const sent = target.options ?? (target.body === undefined ? {} : { json: target.body });
+      const forged = await fx.clients.owner.request(c.method, target.path, { ...sent, headers: { ...sent.headers, ...SIBLING } });
+      expect(forged.status, forged.text).toBe(403);
+      const fetchSite = await fx.clients.owner.request(c.method, target.path, { ...sent, headers: { ...sent.headers, 'sec-fetch-site': 'same-site' } });
+      expect(fetchSite.status, fetchSite.text).toBe(403);
+      if (target.body !== undefined) {
+        // What an HTML form can post without a CORS preflight: the JSON text as text/plain.
+        const plain = await fx.clients.owner.request(c.method, target.path, { raw: JSON.stringify(target.body), contentType: 'text/plain' });
+        expect(plain.status, plain.text).toBe(415);
+      }
+      if (c.snapshot) expect(await c.snapshot(fx, target)).toEqual(before);
     });
   }
 });

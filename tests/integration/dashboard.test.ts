@@ -13,6 +13,7 @@ import { addMember, Client, createPlot, createProperty, signedInUser, type TestU
 type Person = { user: TestUser; client: Client };
 type Step = { id: string; kind: string; date: string; status: string; recurrence?: string | null };
 type Dash = {
+  asOf: string;
   since: string;
   firstVisit: boolean;
   today: { stepId: string; plotId: string; start: string; recurring?: true }[];
@@ -35,9 +36,12 @@ let place: { latitude: number; longitude: number };
 let plotId: string;
 let steps: Step[];
 
+/** What the page does: read the dashboard, then mark it seen with its `asOf`. */
 const dashboard = async (p: Person) => {
   const res = await p.client.get('/api/dashboard');
   expect(res.status, res.text).toBe(200);
+  const seen = await p.client.post('/api/dashboard/visit', { seenAt: res.body.asOf });
+  expect(seen.status, seen.text).toBe(204);
   return res.body as Dash;
 };
 const mineIds = (d: Dash) => [...d.today, ...d.thisWeek].map((e) => e.stepId);
@@ -107,6 +111,43 @@ describe('GET /api/dashboard', () => {
     expect(move!.reason).toMatch(new RegExp(`^moved by ${owner.user.name}`));
     expect((await dashboard(owner)).moves.map((m) => m.stepId)).not.toContain(seed.id);
     expect((await dashboard(stranger)).moves.map((m) => m.stepId)).not.toContain(seed.id);
+  });
+
+  it('reading the dashboard changes nothing (a GET is safe, RFC 9110 §9.2.1); the visit is the explicit POST', async () => {
+    const lastSeen = async () =>
+      (await db.selectFrom('users').select('last_seen_at').where('id', '=', owner.user.id).executeTakeFirstOrThrow()).last_seen_at;
+    await dashboard(owner);
+    const seed = steps.find((s) => s.kind === 'seed')!;
+    const current = await db.selectFrom('steps').select('local_date').where('id', '=', seed.id).executeTakeFirstOrThrow();
+    const to = new Date(Date.parse(`${current.local_date}T00:00:00Z`) - 86_400_000).toISOString().slice(0, 10);
+    expect((await owner.client.post(`/api/steps/${seed.id}/move`, { date: to, confirm: true })).status).toBe(200);
+
+    const before = await lastSeen();
+    // A top-level link from another site is a plain GET with the cookie: it must not mark anything seen.
+    const first = await owner.client.get('/api/dashboard', { headers: { 'sec-fetch-site': 'cross-site' } });
+    const second = await owner.client.get('/api/dashboard');
+    expect(await lastSeen()).toEqual(before);
+    expect(first.body.since).toBe(second.body.since);
+    expect(first.body.moves.map((m: { stepId: string }) => m.stepId)).toContain(seed.id);
+    expect(second.body.moves.map((m: { stepId: string }) => m.stepId)).toContain(seed.id);
+
+    // A forged visit from another page is refused; the page's own visit marks it.
+    const forged = await owner.client.post('/api/dashboard/visit', { seenAt: second.body.asOf }, { headers: { origin: 'http://127.0.0.1:1' } });
+    expect(forged.status).toBe(403);
+    expect(await lastSeen()).toEqual(before);
+    expect((await owner.client.post('/api/dashboard/visit', { seenAt: second.body.asOf })).status).toBe(204);
+    expect(new Date((await lastSeen())!).toISOString()).toBe(second.body.asOf);
+    expect((await dashboard(owner)).moves.map((m) => m.stepId)).not.toContain(seed.id);
+  });
+
+  it('a visit that is not an instant is a 400 naming seenAt; an older one never moves the mark back', async () => {
+    const bad = await owner.client.post('/api/dashboard/visit', { seenAt: 'yesterday' });
+    expect(bad.status).toBe(400);
+    expect(bad.body.fields).toHaveProperty('seenAt');
+    const mark = async () => (await db.selectFrom('users').select('last_seen_at').where('id', '=', owner.user.id).executeTakeFirstOrThrow()).last_seen_at;
+    const now = await mark();
+    expect((await owner.client.post('/api/dashboard/visit', { seenAt: '2020-01-01T00:00:00Z' })).status).toBe(204);
+    expect(await mark()).toEqual(now);
   });
 
   it('names a property whose forecast refresh is failing, to its people only', async () => {

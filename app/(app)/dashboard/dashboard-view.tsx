@@ -3,7 +3,7 @@
 import { useQuery } from '@tanstack/react-query';
 import { ArrowRight, CloudOff, Pin, Repeat, Search } from 'lucide-react';
 import Link from 'next/link';
-import type { ReactNode } from 'react';
+import { useEffect, type ReactNode } from 'react';
 import { Card, CardHeader } from '@/components/ui/card';
 import { Notice } from '@/components/ui/notice';
 import { LoadingBlock } from '@/components/ui/skeleton';
@@ -18,14 +18,21 @@ const when = (instant: string) =>
   new Date(instant).toLocaleString('en-US', { weekday: 'short', day: 'numeric', month: 'short', hour: 'numeric', minute: '2-digit' });
 
 export function DashboardView() {
-  // Opening the dashboard counts as a visit on the server; asking again on every focus would empty
-  // "moved since your last visit" while the person is still reading it.
+  // Once the overview is shown, the visit is marked (an explicit POST: reading the dashboard changes
+  // nothing). Asking again on every focus would then empty "moved since your last visit" while the person
+  // is still reading it.
   const query = useQuery({
     queryKey: ['dashboard'],
     queryFn: () => apiFetch<Dashboard>('/api/dashboard'),
     staleTime: Infinity,
     refetchOnWindowFocus: false,
   });
+  const shownAsOf = query.data?.asOf;
+  useEffect(() => {
+    if (!shownAsOf) return;
+    // Failing to mark a visit only means the same moves are listed once more next time.
+    apiFetch('/api/dashboard/visit', { method: 'POST', body: { seenAt: shownAsOf } }).catch(() => undefined);
+  }, [shownAsOf]);
   if (query.isPending) return <LoadingBlock label="Loading your steps" rows={4} />;
   if (query.isError) {
     return (
