@@ -4,9 +4,21 @@ import { z } from 'zod';
 const blankToUndefined = (value: unknown) =>
   value === '' || value === null || (typeof value === 'number' && Number.isNaN(value)) ? undefined : value;
 
+/**
+ * C0 control characters and DEL, except tab, line feed and carriage return (which multi-line notes use).
+ * PostgreSQL refuses U+0000 in text outright ("invalid byte sequence"), and none of the others is typed by
+ * a person; they come from pasted binary or a crafted request.
+ */
+const CONTROL_CHARACTER = /[\u0000-\u0008\u000b\u000c\u000e-\u001f\u007f]/;
+
+export const hasControlCharacter = (value: string) => CONTROL_CHARACTER.test(value);
+
+/** Text as people type it: no control characters (above). Every free-text field is built on this. */
+export const plainText = (label: string, error = `${label} must be text`) =>
+  z.string({ error }).refine((v) => !hasControlCharacter(v), `${label} must not contain control characters`);
+
 export const requiredText = (label: string, max = 120) =>
-  z
-    .string({ error: `${label} is required` })
+  plainText(label, `${label} is required`)
     .trim()
     .min(1, `${label} is required`)
     .max(max, `${label} must be at most ${max} characters`);
@@ -14,7 +26,7 @@ export const requiredText = (label: string, max = 120) =>
 export const optionalText = (label: string, max = 2000) =>
   z.preprocess(
     (v) => (typeof v === 'string' && v.trim() === '' ? undefined : blankToUndefined(v)),
-    z.string({ error: `${label} must be text` }).trim().max(max, `${label} must be at most ${max} characters`).optional(),
+    plainText(label).trim().max(max, `${label} must be at most ${max} characters`).optional(),
   );
 
 export const requiredNumber = (label: string, min: number, max: number, unit = '') =>

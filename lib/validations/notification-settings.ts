@@ -1,4 +1,5 @@
 import { z } from 'zod';
+import { optionalText } from './common';
 
 const hour = (label: string) =>
   z
@@ -35,6 +36,6 @@ export const pushSubscriptionSchema = z.object({
     p256dh: z.string().regex(/^[A-Za-z0-9_-]{80,100}$/, 'p256dh must be a base64url P-256 public key'),
     auth: z.string().regex(/^[A-Za-z0-9_-]{16,32}$/, 'auth must be a base64url secret'),
   }),
-  label: z.string().trim().max(120, 'Label must be at most 120 characters').optional(),
+  label: optionalText('Label', 120),
 });
 export type PushSubscriptionInput = z.infer<typeof pushSubscriptionSchema>;

@@ -2,7 +2,7 @@ import { z } from 'zod';
 import { STEP_KINDS } from '@/lib/schedule/step-kinds';
 import type { StepKind } from '@/lib/schedule/types';
 import { daysBetween } from '@/lib/schedule/local-dates';
-import { localDate } from './common';
+import { isRealDate, localDate } from './common';
 import { plantingSchema } from './planting';
 
 const STEP_KIND_VALUES = Object.keys(STEP_KINDS) as [StepKind, ...StepKind[]];
@@ -31,6 +31,7 @@ export const stepMoveSchema = z
 export type StepMoveInput = z.infer<typeof stepMoveSchema>;
 
 const blankToUndefined = (v: unknown) => (v === '' || v === null ? undefined : v);
+const realRange = (q: { from: string; to: string }) => isRealDate(q.from) && isRealDate(q.to);
 
 /** The calendar's query string: a local date range and optional filters. */
 export const calendarQuerySchema = z
@@ -42,8 +43,9 @@ export const calendarQuerySchema = z
     kind: z.preprocess(blankToUndefined, z.enum(STEP_KIND_VALUES, { error: 'Kind must be one of the step kinds' }).optional()),
     assignee: z.preprocess(blankToUndefined, z.uuid({ error: 'Assignee must be a user id' }).optional()),
   })
-  .refine((q) => q.to >= q.from, { message: 'To must not be before From', path: ['to'] })
-  .refine((q) => q.to < q.from || daysBetween(q.from, q.to) <= CALENDAR_MAX_DAYS, {
+  // The range checks only compare real dates: a bad one is already reported under its own field.
+  .refine((q) => !realRange(q) || q.to >= q.from, { message: 'To must not be before From', path: ['to'] })
+  .refine((q) => !realRange(q) || q.to < q.from || daysBetween(q.from, q.to) <= CALENDAR_MAX_DAYS, {
     message: `The range may span at most ${CALENDAR_MAX_DAYS} days`,
     path: ['to'],
   });

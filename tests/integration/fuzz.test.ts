@@ -4,6 +4,10 @@
 // must be 400 with `fields[<that field>]` set (DEVELOPERS.md, "Errors and input"), never 500, and the
 // database rows that belong to this file's fixture must be identical before and after.
 // The routes are discovered from app/api, so a new JSON route fails the discovery test until it has a SPEC.
+// Query strings get the same treatment (QUERY_SPECS, discovered from the handlers that read searchParams),
+// and every string field is also sent with control characters, NUL above all: PostgreSQL refuses U+0000 in
+// text ("invalid byte sequence for encoding UTF8: 0x00", PostgreSQL docs §8.3 Character Types), so a NUL
+// that reaches the database is a 500 unless the zod layer refuses it first.
 // Runs are bounded (RUNS per route) and seeded: set FUZZ_SEED to replay a failure; the seed is printed.
 import { createECDH, randomBytes, randomUUID } from 'node:crypto';
 import { readdirSync, readFileSync } from 'node:fs';
@@ -13,6 +17,7 @@ import { sql, type Kysely } from 'kysely';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import type { Database } from '@/db/database';
 import { SPECIES } from '@/lib/agronomy/species';
+import { STEP_KINDS } from '@/lib/schedule/step-kinds';
 import { addMember, Client, createPlot, createProperty, plotBody, propertyBody, signedInUser, uniqueEmail } from '../support/http';
 import { testDb } from '../support/db';
 
@@ -65,6 +70,11 @@ const tooLong = (max: number) =>
     fc.constant(`${'ß'.repeat(200_000)}`),
   );
 const blankText = fc.constantFrom('', ' ', '\t\n', '\u00a0\u2003');
+/** C0 controls other than tab, LF and CR, and DEL: never typed by a person; NUL breaks PostgreSQL text. */
+const CONTROL_CHARACTERS = ['\u0000', '\u0001', '\u0007', '\u0008', '\u000b', '\u000c', '\u001b', '\u001f', '\u007f'];
+const withControl = fc
+  .tuple(fc.string({ unit: 'grapheme', maxLength: 8 }), fc.constantFrom(...CONTROL_CHARACTERS), fc.string({ unit: 'grapheme', maxLength: 8 }))
+  .map(([a, c, b]) => `x${a}${c}${b}`);
 /** Strings that are not a real YYYY-MM-DD date between 1900 and 2200 (Sowcast's own range, lib/validations/common.ts). */
 const badDates = fc.oneof(
   fc.constantFrom(
@@ -108,7 +118,7 @@ function badValues(kind: Kind): fc.Arbitrary<unknown> {
   const missing = required ? [fc.constant(null)] : [];
   switch (kind.t) {
     case 'text':
-      return fc.oneof(nonString, tooLong(kind.max), ...(required ? [blankText, fc.constant(null)] : []), ...(kind.min ? [fc.constant('x'.repeat(kind.min - 1))] : []));
+      return fc.oneof(nonString, tooLong(kind.max), withControl, ...(required ? [blankText, fc.constant(null)] : []), ...(kind.min ? [fc.constant('x'.repeat(kind.min - 1))] : []));
     case 'enum':
       return fc.oneof(
         nonString,
@@ -462,6 +472,66 @@ const SPECS: Record<string, Spec> = {
   },
 };
 
+/** GET handlers that read a query string: each parameter, what it must be, and a valid query to start from. */
+interface QuerySpec {
+  path: (fx: Fixture) => string;
+  base: Record<string, string>;
+  params: Record<string, Kind>;
+}
+
+const recordQuery: Omit<QuerySpec, 'path'> = {
+  base: { product: 'Glyphosate', from: '2026-01-01', to: '2026-12-31', kind: 'herbicide' },
+  params: {
+    plot: { t: 'uuid', required: false },
+    product: { t: 'text', max: 120, required: false },
+    from: { t: 'date', required: false },
+    to: { t: 'date', required: false },
+    kind: { t: 'enum', known: ['herbicide', 'fertilizer', 'lime'], required: false },
+  },
+};
+const expenseQuery: Omit<QuerySpec, 'path'> = {
+  base: { season: 'fall', year: '2027' },
+  params: { season: { t: 'enum', known: ['spring', 'fall'], required: false }, year: { t: 'num', min: 2000, max: 2200, int: true, required: false, numericText: true } },
+};
+
+const QUERY_SPECS: Record<string, QuerySpec> = {
+  'GET /api/calendar': {
+    path: () => '/api/calendar',
+    base: { from: '2027-06-01', to: '2027-12-31', kind: 'spray' },
+    params: {
+      from: { t: 'date' },
+      to: { t: 'date' },
+      property: { t: 'uuid', required: false },
+      plot: { t: 'uuid', required: false },
+      kind: { t: 'enum', known: Object.keys(STEP_KINDS), required: false },
+      assignee: { t: 'uuid', required: false },
+    },
+  },
+  'GET /api/properties/[propertyId]/records': { path: (fx) => `/api/properties/${fx.propertyId}/records`, ...recordQuery },
+  'GET /api/properties/[propertyId]/records/export': { path: (fx) => `/api/properties/${fx.propertyId}/records/export`, ...recordQuery },
+  'GET /api/properties/[propertyId]/expenses': { path: (fx) => `/api/properties/${fx.propertyId}/expenses`, ...expenseQuery },
+  'GET /api/properties/[propertyId]/expenses/export': { path: (fx) => `/api/properties/${fx.propertyId}/expenses/export`, ...expenseQuery },
+  'GET /api/steps/[stepId]/record-draft': {
+    path: (fx) => `/api/steps/${fx.stepId}/record-draft`,
+    base: { at: '2027-09-01T13:30:00Z' },
+    params: { at: { t: 'instant' } },
+  },
+};
+
+/** What a bad query parameter can be: a query string carries text only, so every bad value is sent as text. */
+function badParams(kind: Kind): fc.Arbitrary<string> {
+  // Any value is text in a query string, so only length and control characters make free text bad.
+  if (kind.t === 'text') return fc.oneof(tooLong(kind.max), withControl);
+  const asText = (v: unknown) => (typeof v === 'string' ? v : JSON.stringify(v));
+  const text = badValues(kind)
+    .filter((v) => v !== null && v !== undefined)
+    .map(asText)
+    // A blank optional parameter means "not given"; a number that reads as a valid one is not bad.
+    .filter((v) => v.trim() !== '' || ('required' in kind && kind.required !== false))
+    .filter((v) => kind.t !== 'num' || !(Number.isFinite(Number(v.trim())) && Number(v) >= kind.min && Number(v) <= kind.max && (!kind.int || Number.isInteger(Number(v)))));
+  return fc.oneof(text, withControl);
+}
+
 // ---- discovery ------------------------------------------------------------------------------------------
 
 /** Every handler under app/api whose own code reads a JSON body (parseBody, parsePatch or readJsonObject). */
@@ -482,6 +552,23 @@ function jsonRoutes(): string[] {
     if (/export\s*\{[^}]*\bas\s+(POST|PUT|PATCH|DELETE)\b/.test(source) && /\b(parseBody|parsePatch|readJsonObject)\s*\(/.test(source)) {
       throw new Error(`${route}: re-exported handlers are not understood by this discovery; export them directly`);
     }
+  }
+  return found.sort();
+}
+
+/** Every GET handler under app/api whose own code reads the query string. */
+function queryRoutes(): string[] {
+  const apiDir = path.resolve(__dirname, '../../app/api');
+  const found: string[] = [];
+  for (const entry of readdirSync(apiDir, { recursive: true, encoding: 'utf8' })) {
+    if (path.basename(entry) !== 'route.ts') continue;
+    const route = `/api/${path.dirname(entry).split(path.sep).join('/')}`;
+    const source = readFileSync(path.join(apiDir, entry), 'utf8');
+    const starts = [...source.matchAll(/export\s+(?:const|async\s+function|function)\s+(GET|POST|PUT|PATCH|DELETE)\b/g)];
+    starts.forEach((m, i) => {
+      const piece = source.slice(m.index, starts[i + 1]?.index ?? source.length);
+      if (m[1] === 'GET' && /\b(searchParams|parseExpenseFilter)\b/.test(piece)) found.push(`GET ${route}`);
+    });
   }
   return found.sort();
 }
@@ -652,4 +739,75 @@ describe('bodies that are not a JSON object', () => {
     }
     expect(await snapshot(fx, fixtureIds)).toEqual(before);
   }, 120_000);
+});
+
+it('every GET handler that reads a query string has a query spec, and every query spec is one', () => {
+  const found = queryRoutes();
+  expect(found.length).toBeGreaterThanOrEqual(6);
+  expect(found).toEqual(Object.keys(QUERY_SPECS).sort());
+});
+
+describe('fuzzed query strings: 400 naming the parameter, never 500', () => {
+  for (const [key, spec] of Object.entries(QUERY_SPECS)) {
+    it(key, async () => {
+      const ok = await fx.owner.client.get(`${spec.path(fx)}?${new URLSearchParams(spec.base)}`);
+      expect(ok.status, `the base query must pass: ${ok.text.slice(0, 200)}`).toBe(200);
+      const mutation = fc.oneof(...Object.entries(spec.params).map(([param, kind]) => badParams(kind).map((value) => ({ param, value }))));
+      const statuses: Record<number, number> = {};
+      await fc.assert(
+        fc.asyncProperty(mutation, async ({ param, value }) => {
+          const query = new URLSearchParams({ ...spec.base, [param]: value });
+          const res = await fx.owner.client.get(`${spec.path(fx)}?${query}`);
+          statuses[res.status] = (statuses[res.status] ?? 0) + 1;
+          const shown = `?${param}=${JSON.stringify(value).slice(0, 80)} → ${res.status} ${res.text.slice(0, 300)}`;
+          expect(res.status, shown).toBe(400);
+          expect(Object.keys(res.body.fields ?? {}), shown).toContain(param);
+        }),
+        { seed: SEED, numRuns: RUNS, endOnFailure: true },
+      );
+      expect(statuses).toEqual({ 400: RUNS });
+    }, 120_000);
+  }
+
+  it('a date range whose end is not a date is a 400 naming `to` (it was a 500)', async () => {
+    const res = await fx.owner.client.get('/api/calendar?from=2027-06-01&to=x');
+    expect(res.status, res.text).toBe(400);
+    expect(res.body.fields.to).toMatch(/real date/);
+  });
+
+  it('an unknown query parameter is refused where the filter is strict, and names it', async () => {
+    const res = await fx.owner.client.get(`/api/properties/${fx.propertyId}/records?colour=red`);
+    expect(res.status).toBe(400);
+    expect(JSON.stringify(res.body.fields)).toMatch(/colour/);
+  });
+});
+
+describe('a NUL (and other control characters) in any string field: 400 naming the field, nothing written', () => {
+  // The password is hashed, never stored as text; what it may contain is the sign-in rules' business.
+  const HASHED_ONLY = new Set(['POST /api/users password']);
+  it('every JSON route, every string field of its valid body', async () => {
+    const before = await snapshot(fx, fixtureIds);
+    let sent = 0;
+    for (const [key, spec] of Object.entries(SPECS)) {
+      const method = key.split(' ')[0];
+      for (const field of Object.keys(spec.fields)) {
+        if (HASHED_ONLY.has(`${key} ${field}`)) continue;
+        const valid = field.split('.').reduce<any>((at, k) => at?.[k], spec.base(fx));
+        if (typeof valid !== 'string') continue;
+        for (const control of ['\u0000', '\u001b']) {
+          const body = spec.base(fx);
+          setPath(body, field, `${valid || 'x'}${control}`);
+          const client = spec.as === 'signedOut' ? new Client('fuzz sign-up') : fx.owner.client;
+          const res = await client.request(method, spec.path(fx), { raw: jsonText(body), contentType: 'application/json' });
+          const shown = `${key} ${field} + U+${control.charCodeAt(0).toString(16).padStart(4, '0')} → ${res.status} ${res.text.slice(0, 200)}`;
+          expect(res.status, shown).toBe(400);
+          const named = Object.keys(res.body.fields ?? {}).filter((k) => k === field || k.startsWith(`${field}.`) || field.startsWith(`${k}.`));
+          expect(named.length, shown).toBeGreaterThan(0);
+          sent += 1;
+        }
+      }
+    }
+    expect(sent).toBeGreaterThan(40);
+    expect(await snapshot(fx, fixtureIds)).toEqual(before);
+  }, 180_000);
 });

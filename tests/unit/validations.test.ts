@@ -220,3 +220,28 @@ describe('fieldErrors', () => {
     for (const message of Object.values(fields)) expect(typeof message).toBe('string');
   });
 });
+
+describe('control characters in text (PostgreSQL refuses U+0000 in text: "invalid byte sequence for encoding UTF8: 0x00")', () => {
+  it('a NUL or another C0 control character in any free-text field is refused, naming the field', () => {
+    for (const bad of ['Ridge\u0000', '\u0000', 'a\u0007b', 'x\u001by', 'del\u007f']) {
+      expect(messageFor(propertySchema, { ...PROPERTY, name: bad }, 'name')).toBe('Name must not contain control characters');
+      expect(messageFor(plotSchema, { ...PLOT, notes: bad }, 'notes')).toMatch(/must not contain control characters/);
+    }
+  });
+
+  it('tab, line feed and carriage return stay allowed in multi-line text', () => {
+    expect(messageFor(plotSchema, { ...PLOT, notes: 'first line\r\nsecond\tcolumn' }, 'notes')).toBeUndefined();
+  });
+});
+
+describe('calendarQuerySchema with a date that is not a date', () => {
+  it('answers a field error for `to` instead of throwing in the range check', async () => {
+    const { calendarQuerySchema } = await import('@/lib/validations/step-edit');
+    for (const to of ['x', '2027-13-45', '2027-01-01\u0000']) {
+      expect(() => calendarQuerySchema.safeParse({ from: '2027-01-01', to })).not.toThrow();
+      expect(messageFor(calendarQuerySchema, { from: '2027-01-01', to }, 'to')).toBe('To must be a real date (YYYY-MM-DD)');
+    }
+    expect(messageFor(calendarQuerySchema, { from: 'x', to: '2027-01-01' }, 'from')).toBe('From must be a real date (YYYY-MM-DD)');
+    expect(messageFor(calendarQuerySchema, { from: 'x', to: '2027-01-01' }, 'to')).toBeUndefined();
+  });
+});
