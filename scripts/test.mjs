@@ -58,6 +58,9 @@ async function main() {
     mkdirSync(env.TEST_ARTIFACTS_DIR, { recursive: true });
 
     for (const name of ['WEATHER', 'SMTP', 'INBOX', 'PUSH']) env[`TEST_PORT_${name}`] = String(await freePort());
+    // The made-up push service API tests register devices with: a .test name never resolves (RFC 6761 §6.2),
+    // so the public-address rule for push endpoints (lib/notify/push-endpoint.ts) would refuse it.
+    env.PUSH_ENDPOINT_ALLOWED_ORIGINS = 'https://push.example.test';
     env.SOWCAST_DATA_DIR = path.join(workDir, 'data');
     mkdirSync(env.SOWCAST_DATA_DIR, { recursive: true });
     for (const service of testServices({ env, workDir, dataDir: env.SOWCAST_DATA_DIR })) {

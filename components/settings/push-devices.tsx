@@ -7,7 +7,7 @@ import { Button } from '@/components/ui/button';
 import { Card, CardHeader } from '@/components/ui/card';
 import { Notice } from '@/components/ui/notice';
 import { LoadingBlock } from '@/components/ui/skeleton';
-import { apiFetch, errorMessage, queryKeys } from '@/lib/client/api';
+import { ApiError, apiFetch, errorMessage, queryKeys } from '@/lib/client/api';
 import { formatInstantDate } from '@/lib/client/format';
 
 interface Device {
@@ -136,7 +136,18 @@ export function PushDevices() {
         await stale.unsubscribe();
         created = await registration.pushManager.subscribe(options);
       }
-      await apiFetch('/api/settings/push-subscriptions', { method: 'POST', body: { ...created.toJSON(), label: deviceLabel() } });
+      const save = (sub: PushSubscription) =>
+        apiFetch('/api/settings/push-subscriptions', { method: 'POST', body: { ...sub.toJSON(), label: deviceLabel() } });
+      try {
+        await save(created);
+      } catch (error) {
+        // 409: this browser's subscription belongs to another account (someone else used this browser).
+        // The server never moves it; a fresh subscription gets a new endpoint of this person's own.
+        if (!(error instanceof ApiError) || error.status !== 409) throw error;
+        await created.unsubscribe();
+        created = await registration.pushManager.subscribe(options);
+        await save(created);
+      }
       setMessage({ tone: 'success', text: 'This device will get Sowcast’s notifications.' });
     } catch (error) {
       // A subscription the server could not store would receive nothing: do not leave it behind.

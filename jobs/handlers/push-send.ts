@@ -5,6 +5,7 @@ import { now } from '@/lib/clock';
 import { markDropped, markFailed, markSent } from '@/lib/data/notifications';
 import { deleteSubscriptionById, listSubscriptions, markSubscriptionUsed } from '@/lib/data/push-subscriptions';
 import { sendPush } from '@/lib/notify/push';
+import { checkPushEndpoint, pushAgent } from '@/lib/notify/push-endpoint';
 import type { StoredMessage } from '@/lib/notify/reminders';
 import type { JobContext } from '../context';
 import { errorText } from '../log';
@@ -25,7 +26,9 @@ export async function sendPushNotification(ctx: JobContext, job: { id: string; d
   const errors: string[] = [];
   for (const device of devices) {
     try {
-      if ((await sendPush(device, payload)) === 'gone') {
+      // Checked again here, not only when the phone subscribed: the endpoint's name may now point elsewhere.
+      await checkPushEndpoint(device.endpoint);
+      if ((await sendPush(device, payload, { agent: pushAgent() })) === 'gone') {
         gone++;
         await deleteSubscriptionById(device.id);
         ctx.log('info', 'push subscription gone; removed', { queue: QUEUES.pushSend, jobId: job.id, notificationId: row.id, subscriptionId: device.id });

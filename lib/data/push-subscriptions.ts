@@ -1,16 +1,22 @@
 import { getDb } from '@/db';
 import type { PushSubscriptionInput } from '@/lib/validations/notification-settings';
 
-/** Stores a device's subscription; the same endpoint again (re-subscribe) moves to the signed-in user. */
+/**
+ * Stores a device's subscription; the same endpoint again from the same person (re-subscribe) updates its
+ * keys and label. An endpoint registered to someone else is never moved: undefined, and nothing changes.
+ */
 export async function saveSubscription(userId: string, input: PushSubscriptionInput) {
   return getDb()
     .insertInto('push_subscriptions')
     .values({ user_id: userId, endpoint: input.endpoint, p256dh: input.keys.p256dh, auth: input.keys.auth, label: input.label ?? null })
     .onConflict((oc) =>
-      oc.column('endpoint').doUpdateSet({ user_id: userId, p256dh: input.keys.p256dh, auth: input.keys.auth, label: input.label ?? null }),
+      oc
+        .column('endpoint')
+        .doUpdateSet({ p256dh: input.keys.p256dh, auth: input.keys.auth, label: input.label ?? null })
+        .where('push_subscriptions.user_id', '=', userId),
     )
     .returning(['id', 'endpoint', 'label', 'created_at'])
-    .executeTakeFirstOrThrow();
+    .executeTakeFirst();
 }
 
 export async function listSubscriptions(userId: string) {

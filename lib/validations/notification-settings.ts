@@ -1,5 +1,5 @@
 import { z } from 'zod';
-import { optionalText } from './common';
+import { hasControlCharacter, optionalText } from './common';
 
 const hour = (label: string) =>
   z
@@ -31,7 +31,12 @@ export const notificationSettingsSchema = z
 export type NotificationSettingsInput = z.infer<typeof notificationSettingsSchema>;
 
 export const pushSubscriptionSchema = z.object({
-  endpoint: z.url({ error: 'Endpoint must be an https URL' }).max(2000, 'Endpoint is too long').refine((u) => u.startsWith('https://'), 'Endpoint must be an https URL'),
+  // Whether the host is a public push service is checked after parsing (lib/notify/push-endpoint.ts: DNS).
+  endpoint: z
+    .url({ error: 'Endpoint must be an https URL' })
+    .max(2000, 'Endpoint is too long')
+    .refine((u) => u.startsWith('https://'), 'Endpoint must be an https URL')
+    .refine((u) => !hasControlCharacter(u), 'Endpoint must not contain control characters'),
   keys: z.object({
     p256dh: z.string().regex(/^[A-Za-z0-9_-]{80,100}$/, 'p256dh must be a base64url P-256 public key'),
     auth: z.string().regex(/^[A-Za-z0-9_-]{16,32}$/, 'auth must be a base64url secret'),

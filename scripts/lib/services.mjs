@@ -41,6 +41,9 @@ function fakes({ env, dataDir, ports }) {
       insecureReady: true,
       exports: {
         FAKE_PUSH_URL: `https://127.0.0.1:${ports.push}`,
+        // Push endpoints must be public https hosts; the local fake on loopback is let through, with any
+        // origins the environment already lists.
+        PUSH_ENDPOINT_ALLOWED_ORIGINS: [env.PUSH_ENDPOINT_ALLOWED_ORIGINS, `https://127.0.0.1:${ports.push}`].filter(Boolean).join(','),
         // The worker trusts the fake's self-signed certificate; real push services keep the system CAs.
         NODE_EXTRA_CA_CERTS: path.join(pushDir, 'cert.pem'),
       },
@@ -90,7 +93,7 @@ export function testServices({ env, workDir, dataDir }) {
   const webPort = new URL(env.SOWCAST_BASE_URL).port;
   const ports = { weather: env.TEST_PORT_WEATHER, smtp: env.TEST_PORT_SMTP, inbox: env.TEST_PORT_INBOX, push: env.TEST_PORT_PUSH };
   return [
-    ...fakes({ env: {}, dataDir, ports }),
+    ...fakes({ env: { PUSH_ENDPOINT_ALLOWED_ORIGINS: env.PUSH_ENDPOINT_ALLOWED_ORIGINS }, dataDir, ports }),
     {
       name: 'web',
       build: { label: 'building the app (next build)', command: nodeBin('next'), args: ['build'] },

@@ -2,15 +2,22 @@
 // phone notifications (GET /api/settings/push, POST/DELETE /api/settings/push-subscriptions), over real HTTP
 // with real sessions. Who may call them is in the role matrix (access.test.ts).
 import { createECDH, createPublicKey, randomBytes, randomUUID } from 'node:crypto';
-import { beforeAll, describe, expect, it } from 'vitest';
+import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import { testDb } from '../support/db';
 import { signedInUser, type Client, type TestUser } from '../support/http';
 
 type Person = { user: TestUser; client: Client };
 let alice: Person;
 let bruno: Person;
 
+const db = testDb();
+
 beforeAll(async () => {
   [alice, bruno] = await Promise.all([signedInUser('settings-alice'), signedInUser('settings-bruno')]);
+});
+
+afterAll(async () => {
+  await db.destroy();
 });
 
 const VALID = {
@@ -142,6 +149,36 @@ describe('push devices', () => {
     expect(foreign.status).toBe(204);
     const theirs = (await bruno.client.get('/api/settings/push')).body.devices as { endpoint: string }[];
     expect(theirs.map((d) => d.endpoint)).toContain(subscription.endpoint);
+  });
+
+  it("another person's existing endpoint is refused with 409 and stays theirs; the answer does not say whose", async () => {
+    const subscription = browserSubscription();
+    expect((await bruno.client.post('/api/settings/push-subscriptions', { ...subscription, label: 'Bruno phone' })).status).toBe(201);
+    const taken = await alice.client.post('/api/settings/push-subscriptions', { ...subscription, keys: browserSubscription().keys, label: 'mine now' });
+    expect(taken.status, taken.text).toBe(409);
+    expect(taken.body.fields).toHaveProperty('endpoint');
+    expect(taken.text).not.toContain(bruno.user.email);
+    expect(taken.text).not.toContain(bruno.user.name);
+    const row = await db.selectFrom('push_subscriptions').select(['user_id', 'label', 'p256dh']).where('endpoint', '=', subscription.endpoint).executeTakeFirstOrThrow();
+    expect(row).toEqual({ user_id: bruno.user.id, label: 'Bruno phone', p256dh: subscription.keys.p256dh });
+    // The owner subscribing again with the same endpoint still updates their own row.
+    expect((await bruno.client.post('/api/settings/push-subscriptions', { ...subscription, label: 'Bruno phone, renamed' })).status).toBe(201);
+    expect((await db.selectFrom('push_subscriptions').select('label').where('endpoint', '=', subscription.endpoint).executeTakeFirstOrThrow()).label).toBe('Bruno phone, renamed');
+  });
+
+  it('refuses endpoints on loopback, private, link-local, unique-local and CGNAT addresses (SSRF), and a name that does not resolve', async () => {
+    // OWASP SSRF Prevention Cheat Sheet; ranges from IANA's special-purpose registries (RFC 6890, RFC 1918, RFC 3927, RFC 4193, RFC 6598).
+    const fakePush = new URL(process.env.FAKE_PUSH_URL!);
+    for (const host of [
+      '127.0.0.1', `127.0.0.1:${Number(fakePush.port) + 1}`, 'localhost', '[::1]', '10.0.0.7', '172.16.0.1', '192.168.1.20',
+      '169.254.169.254', '[fe80::1]', '[fd00::1]', '100.64.0.1', '0.0.0.0', '[::ffff:127.0.0.1]', 'push.nowhere.invalid',
+    ]) {
+      const body = browserSubscription(host);
+      const res = await alice.client.post('/api/settings/push-subscriptions', body);
+      expect(res.status, `${host}: ${res.text}`).toBe(400);
+      expect(res.body.fields.endpoint, host).toMatch(/public push service|could not be found/);
+      expect(await db.selectFrom('push_subscriptions').select('id').where('endpoint', '=', body.endpoint).executeTakeFirst()).toBeUndefined();
+    }
   });
 
   it('takes a subscription exactly as a Web Push service issues it (the local RFC 8030 push service)', async () => {

@@ -129,6 +129,8 @@ export async function startFakes(): Promise<Fakes> {
       WEATHER_BASE_URL: weather.url,
       SMTP_URL: mail.smtpUrl,
       NODE_EXTRA_CA_CERTS: push.certPath,
+      // The fake push service listens on loopback, which real endpoints may never be (lib/notify/push-endpoint.ts).
+      PUSH_ENDPOINT_ALLOWED_ORIGINS: push.url,
       SOWCAST_DATA_DIR: path.join(dir, 'data'),
     },
     inbox: () => httpJson('GET', `${mail.inboxUrl}/api/messages`),
