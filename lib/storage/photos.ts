@@ -57,9 +57,28 @@ export async function preparePhoto(bytes: Uint8Array): Promise<PreparedPhoto> {
     const [display, thumb] = await Promise.all([render(DISPLAY_PX), render(THUMB_PX)]);
     return { sentType: detected.mime as PreparedPhoto['sentType'], display, thumb, contentType: 'image/webp' };
   } catch (error) {
-    const message = String((error as Error)?.message ?? error);
-    if (/pixel limit/i.test(message)) throw new UploadRefused(413, 'The photo has too many pixels (over 50 megapixels). Send a smaller picture.');
-    throw new UploadRefused(400, `The ${detected.ext.toUpperCase()} file could not be read as a picture (it may be cut short or damaged).`);
+    throw unreadablePicture(error, detected.ext);
+  }
+}
+
+function unreadablePicture(error: unknown, ext: string): UploadRefused {
+  const message = String((error as Error)?.message ?? error);
+  if (/pixel limit/i.test(message)) return new UploadRefused(413, 'The picture has too many pixels (over 50 megapixels). Send a smaller one.');
+  return new UploadRefused(400, `The ${ext.toUpperCase()} file could not be read as a picture (it may be cut short or damaged).`);
+}
+
+/**
+ * A picture kept at its full size (a photographed lab report must stay legible), turned upright and
+ * re-encoded in its own format. sharp writes no EXIF, XMP, IPTC or ICC block unless asked to (its
+ * `keepMetadata`/`withMetadata`), so the GPS position a phone records in the EXIF is gone.
+ */
+export async function pictureWithoutMetadata(bytes: Uint8Array, type: 'image/jpeg' | 'image/png'): Promise<Uint8Array> {
+  try {
+    const image = sharp(bytes, { limitInputPixels: MAX_INPUT_PIXELS, failOn: 'error' }).autoOrient();
+    const encoded = type === 'image/jpeg' ? image.jpeg({ quality: 90 }) : image.png();
+    return new Uint8Array(await encoded.toBuffer());
+  } catch (error) {
+    throw unreadablePicture(error, type === 'image/jpeg' ? 'jpeg' : 'png');
   }
 }
 

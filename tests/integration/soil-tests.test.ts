@@ -1,5 +1,6 @@
 import { readFileSync } from 'node:fs';
 import path from 'node:path';
+import sharp from 'sharp';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { addMember, createPlot, createProperty, signedInUser, type Client } from '../support/http';
 import { testDb } from '../support/db';
@@ -10,8 +11,11 @@ import { fileExists, fileForm, orphanFiles, sendForm, uploadRowCount } from './u
 const csv = (name: string) => readFileSync(path.resolve(__dirname, '../fixtures/soil-tests', name), 'utf8');
 // The smallest well-formed PDF header and trailer file-type recognises (ISO 32000-1 §7.5.2: "%PDF-1.n").
 const PDF = new TextEncoder().encode('%PDF-1.4\n1 0 obj << /Type /Catalog >> endobj\ntrailer << /Root 1 0 R >>\n%%EOF\n');
-// PNG signature (ISO/IEC 15948 §5.2) and an IHDR chunk start.
-const PNG = new Uint8Array([0x89, 0x50, 0x4e, 0x47, 0x0d, 0x0a, 0x1a, 0x0a, 0, 0, 0, 13, 0x49, 0x48, 0x44, 0x52, 0, 0, 0, 1, 0, 0, 0, 1, 8, 2, 0, 0, 0]);
+// A PNG header alone (ISO/IEC 15948 §5.2 signature and an IHDR chunk start): file-type calls it a PNG, but
+// there is no picture in it to re-encode.
+const PNG_HEADER_ONLY = new Uint8Array([0x89, 0x50, 0x4e, 0x47, 0x0d, 0x0a, 0x1a, 0x0a, 0, 0, 0, 13, 0x49, 0x48, 0x44, 0x52, 0, 0, 0, 1, 0, 0, 0, 1, 8, 2, 0, 0, 0]);
+const picture = (width: number, height: number) => sharp({ create: { width, height, channels: 3, background: { r: 240, g: 236, b: 220 } } });
+const storedBytes = (storageKey: string) => new Uint8Array(readFileSync(path.join(process.env.SOWCAST_DATA_DIR!, 'uploads', storageKey)));
 // A ZIP local file header (PKWARE APPNOTE §4.3.7), which file-type names application/zip.
 const ZIP = new Uint8Array([0x50, 0x4b, 0x03, 0x04, 0x14, 0, 0, 0, 8, 0, 0, 0, 0, 0, 0, 0, 0, 0, 0, 0, 0, 0, 0, 0, 0, 0, 0, 0, 0, 0]);
 
@@ -54,9 +58,37 @@ describe('soil-test uploads', () => {
     expect(pdf.body.soilTest).toMatchObject({ ph: 6.2, limeTonsPerAcre: 1, sampledOn: '2028-02-01', pPpm: null });
     // The type comes from the bytes, not from the browser's claim.
     expect(pdf.body.soilTest.file.contentType).toBe('application/pdf');
-    const png = await sendForm(owner, `/api/plots/${plotId}/soil-tests`, fileForm('photo-of-report.png', PNG, 'image/png'));
+    const png = await sendForm(owner, `/api/plots/${plotId}/soil-tests`, fileForm('photo-of-report.png', new Uint8Array(await picture(40, 30).png().toBuffer()), 'image/png'));
     expect(png.status, png.text).toBe(201);
     expect(png.body.soilTest.file.contentType).toBe('image/png');
+    // A PDF is not rewritten: the stored bytes are the lab's.
+    const pdfRow = await db.selectFrom('uploads').select('storage_key').where('id', '=', pdf.body.soilTest.file.uploadId).executeTakeFirstOrThrow();
+    expect(Buffer.from(storedBytes(pdfRow.storage_key)).equals(Buffer.from(PDF))).toBe(true);
+  });
+
+  it('drops the EXIF of a photographed report (GPS position of the field), as photos do, and keeps it legible', async () => {
+    // EXIF GPS IFD (CIPA DC-008, "GPS Info IFD"): latitude as three rationals; Orientation 6 = rotated 90° clockwise.
+    const sent = await picture(120, 60)
+      .jpeg()
+      .withExif({ IFD0: { Artist: 'Field phone' }, IFD3: { GPSLatitudeRef: 'N', GPSLatitude: '36/1 24/1 36/1' } })
+      .withMetadata({ orientation: 6 })
+      .toBuffer();
+    const before = await sharp(sent).metadata();
+    expect(before.exif).toBeDefined();
+    expect(sent.includes(Buffer.from('Field phone'))).toBe(true);
+    const res = await sendForm(owner, `/api/plots/${plotId}/soil-tests`, fileForm('IMG_0420.JPG', new Uint8Array(sent), 'image/jpeg', { ph: '6.0' }));
+    expect(res.status, res.text).toBe(201);
+    expect(res.body.soilTest.file.contentType).toBe('image/jpeg');
+    const row = await db.selectFrom('uploads').select(['storage_key', 'size_bytes', 'sha256']).where('id', '=', res.body.soilTest.file.uploadId).executeTakeFirstOrThrow();
+    const kept = storedBytes(row.storage_key);
+    const meta = await sharp(kept).metadata();
+    expect(meta.format).toBe('jpeg');
+    expect(meta.exif).toBeUndefined();
+    expect(meta.orientation).toBeUndefined();
+    expect(Buffer.from(kept).includes(Buffer.from('Field phone'))).toBe(false);
+    // Full size, turned upright: the report stays readable.
+    expect([meta.width, meta.height]).toEqual([60, 120]);
+    expect(Number(row.size_bytes)).toBe(kept.byteLength);
   });
 
   it('lists the plot’s soil tests for a viewer, newest sample first', async () => {
@@ -64,7 +96,7 @@ describe('soil-test uploads', () => {
     expect(res.status).toBe(200);
     const dated = res.body.soilTests.filter((t: { sampledOn: string | null }) => t.sampledOn).map((t: { sampledOn: string }) => t.sampledOn);
     expect(dated).toEqual(['2028-02-01', '2027-03-14']);
-    expect(res.body.soilTests).toHaveLength(3);
+    expect(res.body.soilTests).toHaveLength(4);
   });
 
   it('refuses bad uploads with a message, and writes nothing', async () => {
@@ -80,6 +112,7 @@ describe('soil-test uploads', () => {
       [fileForm('report.pdf', PDF, 'application/pdf', { ph: 'acid' }), 400, /Soil pH must be a number/],
       [fileForm('report.pdf', PDF, 'application/pdf', { sampledOn: '2027-02-30' }), 400, /Sample date must be a real date/],
       [fileForm('empty.csv', ''), 400, /empty/],
+      [fileForm('cut-short.png', PNG_HEADER_ONLY, 'image/png'), 400, /could not be read as a picture/],
       [fileForm('big.pdf', new Uint8Array(10 * 1024 * 1024 + 1)), 413, /larger than 10 MB/],
     ];
     for (const [form, status, message] of cases) {

@@ -7,7 +7,8 @@ import type { Database } from '@/db/database';
 import { baseUrl, SESSION_COOKIE, type Client } from '../support/http';
 
 export async function sendForm(client: Client, urlPath: string, form: FormData) {
-  const headers: Record<string, string> = { accept: 'application/json' };
+  // A browser's form post names the page's origin; the server refuses other sites' pages.
+  const headers: Record<string, string> = { accept: 'application/json', origin: baseUrl() };
   if (client.address) headers['x-forwarded-for'] = client.address;
   const session = client.cookie(SESSION_COOKIE);
   if (session) headers.cookie = `${SESSION_COOKIE}=${session}`;

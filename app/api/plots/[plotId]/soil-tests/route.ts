@@ -5,6 +5,7 @@ import { json, route } from '@/lib/http';
 import { fileText, readUploadedFile, refuseFile } from '@/lib/http-upload';
 import { parseSoilTestCsv, SoilTestCsvError } from '@/lib/soil-tests/csv';
 import { storage } from '@/lib/storage';
+import { pictureWithoutMetadata, sha256Hex, UploadRefused } from '@/lib/storage/photos';
 import { soilTestFormValues, soilTestValuesSchema } from '@/lib/validations/soil-test';
 
 type Context = { params: Promise<{ plotId: string }> };
@@ -20,8 +21,10 @@ export const GET = route(async (_request, { params }: Context) => {
 });
 
 /**
- * A PDF or picture of the report is kept as it is, with the values typed beside it; a lab's CSV is read for
- * its values. The type is decided from the bytes, never from the name or the browser's claim.
+ * A PDF of the report is kept as it is and a picture re-encoded without its metadata (a phone photo's EXIF
+ * holds the field's GPS position), with the values typed beside it; a lab's CSV is read for its values. The
+ * type is decided from the bytes, never from the name or the browser's claim. PDFs are not rewritten: their
+ * metadata is what the lab's software wrote, and rewriting a PDF could change the report itself.
  */
 export const POST = route(async (request, { params }: Context) => {
   const { plotId } = await params;
@@ -50,15 +53,24 @@ export const POST = route(async (request, { params }: Context) => {
     );
   }
   const input = soilTestValuesSchema.parse(values);
+  let stored = file.bytes;
+  if (contentType === 'image/jpeg' || contentType === 'image/png') {
+    try {
+      stored = await pictureWithoutMetadata(file.bytes, contentType);
+    } catch (error) {
+      if (error instanceof UploadRefused) throw refuseFile(error.status, error.message);
+      throw error;
+    }
+  }
   const files = storage();
-  const storageKey = await files.put('soil-test', file.bytes, contentType);
+  const storageKey = await files.put('soil-test', stored, contentType);
   try {
     const soilTest = await createSoilTest({
       plotId,
       propertyId: plot.property_id,
       userId: user.id,
       values: input,
-      file: { filename: file.filename, contentType, sizeBytes: file.bytes.byteLength, sha256: file.sha256, storageKey },
+      file: { filename: file.filename, contentType, sizeBytes: stored.byteLength, sha256: stored === file.bytes ? file.sha256 : sha256Hex(stored), storageKey },
     });
     return json({ soilTest }, 201);
   } catch (error) {
