@@ -1,6 +1,7 @@
 import { NextResponse } from 'next/server';
 import { ZodError, type ZodType } from 'zod';
 import { crossSiteReason, STATE_CHANGING_METHODS } from './http-origin';
+import { withApiSecurityHeaders } from './security-headers';
 import { fieldErrors } from './validations/common';
 
 /** A JSON body past this many bytes is refused while it streams in (nothing Sowcast takes is near it). */
@@ -58,7 +59,8 @@ type Handler<C> = (request: Request, context: C) => Promise<Response>;
 
 /**
  * Wraps a route handler: a state-changing request from another site's page is refused before the handler
- * runs (lib/http-origin.ts), and every thrown error becomes a JSON answer with the right status.
+ * runs (lib/http-origin.ts), every thrown error becomes a JSON answer with the right status, and every
+ * answer carries the API's security headers (lib/security-headers.ts).
  */
 export function route<C>(handler: Handler<C>): Handler<C> {
   return async (request, context) => {
@@ -67,9 +69,9 @@ export function route<C>(handler: Handler<C>): Handler<C> {
         const reason = crossSiteReason(request);
         if (reason) throw new HttpError(403, `Refused: ${reason}. Make this change from Sowcast's own pages.`);
       }
-      return await handler(request, context);
+      return withApiSecurityHeaders(await handler(request, context));
     } catch (error) {
-      return errorResponse(error);
+      return withApiSecurityHeaders(errorResponse(error));
     }
   };
 }
