@@ -14,7 +14,8 @@ export function pageContentSecurityPolicy(nonce: string, options: { development:
     "style-src 'self' 'unsafe-inline'",
     // Photos, thumbnails and uploads come from our own API; blob: and data: for previews before upload.
     "img-src 'self' blob: data:",
-    "font-src 'self'",
+    // FullCalendar's stylesheet carries its small icon font as a data: URL.
+    "font-src 'self' data:",
     "connect-src 'self'",
     "worker-src 'self'",
     "manifest-src 'self'",
