@@ -3,8 +3,9 @@
 // (RFC 6890): loopback 127/8 and ::1 (RFC 1122, RFC 4291), private 10/8 172.16/12 192.168/16 (RFC 1918),
 // link-local 169.254/16 (RFC 3927) and fe80::/10 (RFC 4291), unique-local fc00::/7 (RFC 4193), shared
 // CGNAT space 100.64/10 (RFC 6598), unspecified 0.0.0.0 and ::, IPv4-mapped ::ffff:0:0/96 (RFC 4291 §2.5.5.2).
+import https from 'node:https';
 import { describe, expect, it } from 'vitest';
-import { addressRefusal, checkPushEndpoint, PushEndpointRefused } from '@/lib/notify/push-endpoint';
+import { addressRefusal, checkPushEndpoint, pushAgent, PushEndpointRefused } from '@/lib/notify/push-endpoint';
 
 const NO_ALLOW = {};
 const resolvesTo = (...addresses: string[]) => async () => addresses;
@@ -51,5 +52,15 @@ describe('checkPushEndpoint', () => {
     await expect(checkPushEndpoint('https://127.0.0.1:4030/push/1', env)).resolves.toBeUndefined();
     await expect(checkPushEndpoint('https://127.0.0.1:4031/push/1', env)).rejects.toBeInstanceOf(PushEndpointRefused);
     await expect(checkPushEndpoint('https://127.0.0.2:4030/push/1', env)).rejects.toBeInstanceOf(PushEndpointRefused);
+  });
+});
+
+describe('pushAgent (the worker’s connection)', () => {
+  it('refuses to connect when the name resolves to loopback at connection time (DNS rebinding after the check)', async () => {
+    const error = await new Promise<NodeJS.ErrnoException>((resolve) => {
+      https.get({ host: 'localhost', port: 9, path: '/push/x', agent: pushAgent() }, () => resolve(new Error('connected') as NodeJS.ErrnoException)).on('error', resolve);
+    });
+    expect(error.code).toBe('EPUSHREFUSED');
+    expect(error.message).toMatch(/loopback/);
   });
 });
