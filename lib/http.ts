@@ -103,7 +103,8 @@ export async function readBodyWithin(request: Request, limitBytes: number, timeo
       chunks.push(value);
     }
   } catch (error) {
-    await reader.cancel().catch(() => undefined);
+    // Not awaited: cancelling a stalled request stream can wait on the very bytes that never come.
+    void reader.cancel().catch(() => undefined);
     throw error;
   } finally {
     clearTimeout(timer);

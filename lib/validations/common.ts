@@ -1,8 +1,5 @@
+import './zod-config';
 import { z } from 'zod';
-
-// No compiled parsers: zod's JIT needs `new Function`, which the pages' Content-Security-Policy forbids (no
-// 'unsafe-eval'), and even zod's probe for it is reported as a violation. Every schema imports this module.
-z.config({ jitless: true });
 
 /** Empty form fields ('' or NaN from a number input) mean "not given". */
 const blankToUndefined = (value: unknown) =>

@@ -1,3 +1,4 @@
+import './zod-config';
 import { z } from 'zod';
 
 /** POST /api/dashboard/visit: the `asOf` of the dashboard the person was shown. */

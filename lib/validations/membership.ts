@@ -1,3 +1,4 @@
+import './zod-config';
 import { z } from 'zod';
 
 export const ROLES = ['owner', 'manager', 'member', 'viewer'] as const;
