@@ -467,7 +467,7 @@ const SPECS: Record<string, Spec> = {
   'POST /api/settings/password': {
     path: () => '/api/settings/password',
     base: () => ({ currentPassword: `not-it-${MARK}`, newPassword: `pw-${MARK}-long-enough` }),
-    fields: { currentPassword: { t: 'text', max: 200 }, newPassword: { t: 'text', max: 200, min: 10 } },
+    fields: { currentPassword: { t: 'text', max: 200, hashed: true }, newPassword: { t: 'text', max: 200, min: 10, hashed: true } },
   },
   'POST /api/users': {
     as: 'signedOut',
