@@ -31,6 +31,7 @@ import { seedBeforeRain } from './rules/seed-before-rain';
 import { soilTemperatureOn } from './rules/soil-temperature';
 import { sprayDay, type SprayContext, type SprayDay } from './rules/spray-window';
 import { upkeepSpecs } from './rules/upkeep';
+import { seedStepNotes } from './seeding-notes';
 import { STEP_KINDS } from './step-kinds';
 import { fertilizerQuantities, limeQuantities, seedQuantities, sprayQuantities, DEFAULT_SEED_BAG_LB } from './step-quantities';
 import type { Forecast, Plan, PlanStep, PlantingInput, Quantity, RuleDecision, StepChange, StepKind } from './types';
@@ -157,12 +158,12 @@ function anchorOf(ctx: Ctx, key: string, fallback: string): string {
 
 function quantitiesFor(ctx: Ctx, kind: StepKind): Quantity[] {
   const { input } = ctx;
-  const bagLb = input.seedBagLb ?? DEFAULT_SEED_BAG_LB;
+  const bagLb = input.seedBagLb ?? input.seedBag?.lb ?? DEFAULT_SEED_BAG_LB;
   switch (kind) {
     case 'seed':
-      return seedQuantities(input.blend, input.acres, input.method, bagLb);
+      return seedQuantities(input.blend, input.acres, input.method, bagLb, input.seedBag);
     case 'frost-seed':
-      return seedQuantities(input.blend, input.acres, 'frost-seeding', bagLb);
+      return seedQuantities(input.blend, input.acres, 'frost-seeding', bagLb, input.seedBag);
     case 'spray':
       return sprayQuantities(input);
     case 'fertilize':
@@ -207,7 +208,7 @@ function commit(ctx: Ctx, key: string, kind: StepKind, p: Placement, after?: str
     cautions: cautionsFor(kind),
     reason: p.reason,
     rules: p.rules ?? [],
-    warnings: p.warnings ?? [],
+    warnings: [...(p.warnings ?? []), ...seedStepNotes(ctx.input, key)],
     recurrence: p.recurrence ?? null,
   };
   ctx.placed.set(key, step);
