@@ -31,8 +31,11 @@ const depthWords = ([low, high]: [number, number]) => {
   return `${inches(low)}–${inches(high)} in`;
 };
 
+/** "White clover (ladino type)" → "white clover", for use inside a sentence. */
+export const plainName = (species: Species) => species.name.replace(/ \(.*\)$/, '').toLowerCase();
+
 const nameList = (species: Species[]) => {
-  const names = species.map((s) => s.name.replace(/ \(.*\)$/, '').toLowerCase());
+  const names = species.map(plainName);
   return names.length <= 1 ? names.join('') : `${names.slice(0, -1).join(', ')} and ${names[names.length - 1]}`;
 };
 
@@ -60,7 +63,7 @@ export function uncoveredLargeSeedWarning(parts: BlendPart[], covered: boolean, 
   if (covered) return null;
   const large = largeSeedIn(parts, p);
   if (!large.length) return null;
-  const depths = large.map((s) => `${s.name.replace(/ \(.*\)$/, '').toLowerCase()} ${depthWords(s.seedDepthIn.value)}`).join(', ');
+  const depths = large.map((s) => `${plainName(s)} ${depthWords(s.seedDepthIn.value)}`).join(', ');
   return (
     `${capitalised(nameList(large))} ${large.length === 1 ? 'is' : 'are'} large seed that belongs under the soil (${depths}); ` +
     'broadcast and left on the surface, much of it dries out or feeds birds. Cover it right after broadcasting — a light disk, a drag or a cultipacker — or add the cover step.'
@@ -83,7 +86,7 @@ export function inoculantReminders(parts: BlendPart[], poundsBySpecies: Map<stri
     .filter(needsInoculant)
     .map((s) => {
       const lb = poundsBySpecies.get(s.id) ?? 0;
-      const name = s.name.replace(/ \(.*\)$/, '').toLowerCase();
+      const name = plainName(s);
       return {
         speciesId: s.id,
         lb,

@@ -2,6 +2,7 @@
 // says it covers) the trade works from that; without one Sowcast stays inside the published broadcast range
 // of each species and never doubles past it. Frost seeding thickens a stand at the published frost rates.
 import type { PlantingMethod } from './quantities';
+import { plainName } from './seed-cover';
 import { blendProfile, getSpecies, type BlendPart, type Species } from './species';
 
 /** What the seed bag's label says it covers: `lb` of this seed plants `acres`. */
@@ -127,7 +128,7 @@ export function seedingRate(
     const how =
       published.length === members.length
         ? `${lb(total)} lb/acre: the published frost-seeding rate (${members
-            .map(({ species }) => `${species.name.toLowerCase()} ${range(species.frostSeedingRateLbPerAcre!.value)} lb/acre`)
+            .map(({ species }) => `${plainName(species)} ${range(species.frostSeedingRateLbPerAcre!.value)} lb/acre`)
             .join(', ')}), middle of the range`
         : `${lb(total)} lb/acre for frost seeding into the existing stand`;
     return { ratePerAcreLb: total, basis: rates.every((r) => r.basis === 'published-frost') ? 'published-frost' : 'drilled-fallback', how, parts: rates, notes };
@@ -178,7 +179,7 @@ export function seedingRate(
   const rangeWords =
     members.length === 1
       ? `${range(members[0].species.broadcastRateLbPerAcre.value)} lb/acre`
-      : members.map(({ species, share }) => `${species.name.toLowerCase()} ${share} × ${range(species.broadcastRateLbPerAcre.value)}`).join(', ');
+      : members.map(({ species, share }) => `${plainName(species)} ${share} × ${range(species.broadcastRateLbPerAcre.value)}`).join(', ');
   return {
     ratePerAcreLb: publishedTotal,
     basis: 'published-broadcast',

@@ -1,6 +1,6 @@
-// What the seed step says beyond its date: how sure its rate is, large seed left uncovered, and the
-// cultipacking that small seed on a prepared seedbed wants. Plain sentences for the step's warnings.
-import { cultipackAdvice, uncoveredLargeSeedWarning } from '@/lib/agronomy/seed-cover';
+// What the seed step warns about beyond its date: a seeding rate to double-check, and large seed left
+// uncovered. Plain sentences for the step's warnings (advice to carry out goes with the step's quantities).
+import { uncoveredLargeSeedWarning } from '@/lib/agronomy/seed-cover';
 import { seedingRate } from '@/lib/agronomy/seeding-rate';
 import { coversSeed } from './methods';
 import type { PlantingInput } from './types';
@@ -12,7 +12,5 @@ export function seedStepNotes(input: PlantingInput, key: string): string[] {
   if (key === 'frost-seed') return notes;
   const uncovered = uncoveredLargeSeedWarning(input.blend, coversSeed(input));
   if (uncovered) notes.push(uncovered);
-  const cultipack = input.method === 'prepared-seedbed' ? cultipackAdvice(input.blend) : null;
-  if (cultipack) notes.push(cultipack);
   return notes;
 }

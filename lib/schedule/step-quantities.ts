@@ -1,7 +1,7 @@
 // What to carry to the plot for each step, worked out by lib/agronomy/quantities.ts and written as a person
 // reads a list: "17 lb of seed — 2 bags", "2 sprayer fills of 4 gal, 10.2 fl oz of product in each".
 import { fertilizerAmount, limeAmount, seedAmount, sprayMix, type PlantingMethod } from '@/lib/agronomy/quantities';
-import { inoculantReminders } from '@/lib/agronomy/seed-cover';
+import { cultipackAdvice, inoculantReminders } from '@/lib/agronomy/seed-cover';
 import { seedingRate, type SeedBagLabel } from '@/lib/agronomy/seeding-rate';
 import type { BlendPart } from '@/lib/agronomy/species';
 import { formatAmount } from './format';
@@ -11,7 +11,8 @@ export const DEFAULT_SEED_BAG_LB = 50;
 
 const bags = (n: number) => `${n} bag${n === 1 ? '' : 's'}`;
 
-/** The seed to carry: the blend's pounds and bags with how the rate was chosen, each species' pounds, and inoculant. */
+/** The seed to carry: the blend's pounds and bags with how the rate was chosen, each species' pounds, inoculant and, for small
+ *  seed on a prepared seedbed, the cultipacker. */
 export function seedQuantities(
   parts: BlendPart[],
   acres: number,
@@ -39,6 +40,8 @@ export function seedQuantities(
   for (const reminder of inoculantReminders(parts, pounds)) {
     out.push({ item: 'inoculant', amount: reminder.lb, unit: 'lb of seed', detail: reminder.detail });
   }
+  const cultipack = method === 'prepared-seedbed' ? cultipackAdvice(parts) : null;
+  if (cultipack) out.push({ item: 'cultipacker', amount: 1, unit: 'cultipacker', detail: `A cultipacker or roller. ${cultipack}` });
   return out;
 }
 
