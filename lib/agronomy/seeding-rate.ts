@@ -158,15 +158,18 @@ export function seedingRate(
           'that is the usual result of sowing twice a label rate — check what the bag holds.',
       );
     }
+    // The bag is the blend: its pounds split as the blend's shares of each species' broadcast midpoint.
+    const weights = members.map(({ species, share }) => share * at(species.broadcastRateLbPerAcre.value, 0.5));
+    const weightTotal = weights.reduce((sum, w) => sum + w, 0);
     return {
       ratePerAcreLb: total,
       basis: 'bag',
       how,
-      parts: published.map(({ species, share, ratePerAcreLb }) => ({
+      parts: members.map(({ species, share }, i) => ({
         speciesId: species.id,
         name: species.name,
         share,
-        ratePerAcreLb: publishedTotal > 0 ? (total * ratePerAcreLb) / publishedTotal : 0,
+        ratePerAcreLb: (total * weights[i]) / weightTotal,
         basis: 'bag' as const,
         source: `${source}; split in the blend's proportions`,
       })),
