@@ -70,6 +70,13 @@ export function uncoveredLargeSeedWarning(parts: BlendPart[], covered: boolean, 
   );
 }
 
+/** Why the cover step is there, in the words of its reason: large seed is buried, small seed pressed in. */
+export function coverPurpose(parts: BlendPart[], p: SeedCoverParams = SEED_COVER_DEFAULTS): string {
+  const large = largeSeedIn(parts, p);
+  if (!large.length) return 'for seed-to-soil contact';
+  return `to bury the ${nameList(large)} — large seed belongs under the soil; a drag or a light disk, not a cultipacker alone`;
+}
+
 /** Prepared seedbed with small seed: firm it, then press the seed in. Null when the blend has no small seed. */
 export function cultipackAdvice(parts: BlendPart[], p: SeedCoverParams = SEED_COVER_DEFAULTS): string | null {
   const small = smallSeedIn(parts, p);

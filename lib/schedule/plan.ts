@@ -3,6 +3,7 @@
 // fertilizing, frost seeding). replan does the same against a new forecast while keeping what people did
 // and decided: done, skipped and pinned steps stay; following steps count from the real dates; steps past
 // the forecast keep their dates; each move is reported with its old and new date and why.
+import { coverPurpose } from '@/lib/agronomy/seed-cover';
 import { blendProfile, type BlendProfile } from '@/lib/agronomy/species';
 import { cautionsFor } from './cautions';
 import { indexForecast, inHorizon, daysOfHorizon, type ForecastIndex } from './forecast-days';
@@ -808,7 +809,7 @@ function schedule(ctx: Ctx): void {
     const seed = effective(ctx, 'seed') ?? seedStep.date;
     placeTied(ctx, 'rake-till', seed, `work the ground the day of seeding (${shortDay(seed)}) so the seed meets fresh soil`);
     placeTied(ctx, 'lime', effective(ctx, 'rake-till') ?? seed, 'spread on the worked ground and work it in; lime works over months, so sooner is better if you can');
-    placeTied(ctx, 'cover-seed', seed, `right after broadcasting (${shortDay(seed)}), for seed-to-soil contact`);
+    placeTied(ctx, 'cover-seed', seed, `right after broadcasting (${shortDay(seed)}), ${coverPurpose(input.blend)}`);
     if (has(ctx, 'fertilize')) {
       if (seedStep.status === 'planned') {
         const v = ctx.fc && inHorizon(ctx.fc, seed) ? fertilizeBeforeRain(ctx.fc, seed, ctx.params.fertilizeBeforeRain) : null;
@@ -825,7 +826,7 @@ function placeSprayAndSeedRest(ctx: Ctx): void {
   const sprayDate = effective(ctx, 'spray');
   placeTied(ctx, 'lime', sprayDate ?? (ctx.placed.get('seed') as PlanStep).date, 'spread on the surface with the spraying; lime works over months, so sooner is better if you can');
   const seed = effective(ctx, 'seed') ?? (ctx.placed.get('seed') as PlanStep).date;
-  placeTied(ctx, 'cover-seed', seed, `right after broadcasting (${shortDay(seed)}), for seed-to-soil contact`);
+  placeTied(ctx, 'cover-seed', seed, `right after broadcasting (${shortDay(seed)}), ${coverPurpose(ctx.input.blend)}`);
   placeCheck(ctx);
   placeFertilizeAhead(ctx, 'once the stand is up (after the germination check)');
 }

@@ -49,6 +49,7 @@ describe('large seed', () => {
     const plan = planPlanting(oats, null, NOW);
     expect(plan.steps.map((s) => s.key)).toContain('cover-seed');
     expect(step(plan, 'seed').warnings.join(' ')).not.toMatch(/large seed/);
+    expect(step(plan, 'cover-seed').reason).toMatch(/to bury the oats — large seed belongs under the soil; a drag or a light disk/);
     // Clover alone into standing cover needs no cover step (frost, rain and the dying cover settle small seed).
     expect(coversSeed(planting({ method: 'spray-and-seed', cover: 'grass-weeds', coverSeed: undefined }))).toBe(false);
     const refused = planPlanting({ ...oats, coverSeed: false }, null, NOW);
