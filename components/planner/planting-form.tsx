@@ -319,26 +319,6 @@ export function PlantingForm({
             <Field label="Seed bag size (lb)" htmlFor="seedBagLb" optional error={e.seedBagLb?.message} className="w-52">
               <Input {...numberProps()} {...controlAria('seedBagLb', e.seedBagLb?.message)} {...register('seedBagLb', { valueAsNumber: true })} />
             </Field>
-            <Field
-              label="Bag label: seed (lb)"
-              htmlFor="seedBag-lb"
-              optional
-              error={e.seedBag?.lb?.message}
-              hint="What the label says covers the acres beside it."
-              className="w-52"
-            >
-              <Input {...numberProps()} {...controlAria('seedBag-lb', e.seedBag?.lb?.message, 'hint')} {...register('seedBag.lb', { valueAsNumber: true })} />
-            </Field>
-            <Field
-              label="Bag label: covers (acres)"
-              htmlFor="seedBag-acres"
-              optional
-              error={e.seedBag?.acres?.message}
-              hint="Into standing cover Sowcast sows twice the label rate; empty, it keeps to the published range."
-              className="w-52"
-            >
-              <Input {...numberProps()} {...controlAria('seedBag-acres', e.seedBag?.acres?.message, 'hint')} {...register('seedBag.acres', { valueAsNumber: true })} />
-            </Field>
             <Field label="Soil texture" htmlFor="soilTexture" optional error={e.soilTexture?.message} className="w-52">
               <Select {...controlAria('soilTexture', e.soilTexture?.message)} {...register('soilTexture')}>
                 <option value="">Loam (the usual guess)</option>
@@ -348,6 +328,20 @@ export function PlantingForm({
                   </option>
                 ))}
               </Select>
+            </Field>
+          </div>
+          <div className="grid gap-4 sm:grid-cols-2">
+            <Field label="Bag label: seed (lb)" htmlFor="seedBag-lb" optional error={e.seedBag?.lb?.message} hint="What the bag's label says plants the acres beside it.">
+              <Input {...numberProps()} {...controlAria('seedBag-lb', e.seedBag?.lb?.message, 'hint')} {...register('seedBag.lb', { valueAsNumber: true })} />
+            </Field>
+            <Field
+              label="Bag label: covers (acres)"
+              htmlFor="seedBag-acres"
+              optional
+              error={e.seedBag?.acres?.message}
+              hint="Into standing cover Sowcast sows twice the label rate; left empty, it keeps to the published broadcast range."
+            >
+              <Input {...numberProps()} {...controlAria('seedBag-acres', e.seedBag?.acres?.message, 'hint')} {...register('seedBag.acres', { valueAsNumber: true })} />
             </Field>
           </div>
         </fieldset>
