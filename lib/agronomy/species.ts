@@ -70,7 +70,7 @@ const PENN_STATE_WHITE_CLOVER =
 // Frost seeding clover into an existing stand. The extension columns are secondary (agents quoting the specialists).
 const FROST_WHITE_CLOVER =
   'frost seeding 1–2 lb/acre of white clover: University of Kentucky Cooperative Extension county column "Six easy steps … clover frost seeding" (2024, secondary); ' +
-  'WVU Extension (Rayburn) gives the same order; Penn State Extension gives 2–4 lb/acre into grass pasture, and University of Missouri Extension (Roberts, quoted 2020) less';
+  'Penn State Extension gives 2–4 lb/acre into grass pasture, and University of Missouri Extension (Roberts, quoted 2020) ¼ lb/acre of ladino';
 const FROST_RED_CLOVER =
   'frost seeding 6–8 lb/acre of red clover: University of Kentucky Cooperative Extension county column (2024: "six pounds of red clover", secondary); ' +
   'University of Missouri Extension (Roberts, quoted 2020): 8 lb/acre; WVU Extension, Rayburn (1995), Frost and Walk-in Clover Seedings: 2–4 lb/acre when over-seeding every year or two';

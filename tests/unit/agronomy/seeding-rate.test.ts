@@ -2,7 +2,8 @@
 // Alabama DCNR deer management manual, forage appendix (citing Ball et al.); Mississippi State University
 // Extension M1591, Deer Food Plot Planting Guide for the Southeast (drill and broadcast rates); SARE, Managing
 // Cover Crops Profitably; frost-seeding rates from University of Kentucky and University of Missouri Extension
-// (secondary: extension columns quoting the specialists) and WVU Extension (Rayburn 1995). The bag-rate rules
+// (secondary: extension columns quoting the specialists; WVU Extension, Rayburn 1995, sows less red clover when
+// over-seeding every year or two). The bag-rate rules
 // are trade practice and marked so.
 import { describe, expect, it } from 'vitest';
 import { seedAmount } from '@/lib/agronomy/quantities';
@@ -107,7 +108,7 @@ describe('with the bag label rate', () => {
 });
 
 describe('frost seeding', () => {
-  it('white clover 1–2 lb/acre and red clover 6–8 lb/acre (University of Kentucky Extension column; University of Missouri Extension, Roberts; WVU Extension, Rayburn)', () => {
+  it('white clover 1–2 lb/acre and red clover 6–8 lb/acre (University of Kentucky Extension column; University of Missouri Extension, Roberts: red clover 8)', () => {
     expect(getSpecies('white-clover').frostSeedingRateLbPerAcre?.value).toEqual([1, 2]);
     expect(getSpecies('red-clover').frostSeedingRateLbPerAcre?.value).toEqual([6, 8]);
     const white = seedingRate(pure('white-clover'), 'frost-seeding');
