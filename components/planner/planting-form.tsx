@@ -32,6 +32,7 @@ export interface PlantingFields {
   readyBy: string;
   soilTexture: string;
   seedBagLb: number;
+  seedBag: { lb: number; acres: number };
   killWaitDays: number;
   useHerbicide: boolean;
   herbicide: { productName: string; activeIngredients: string[] | false; activeIngredientPct: number; rateKind: string; rate: number; rainfastHours: number };
@@ -65,6 +66,8 @@ export function toPlantingBody(v: PlantingFields): Record<string, unknown> {
     readyBy: text(v.readyBy),
     soilTexture: text(v.soilTexture),
     seedBagLb: num(v.seedBagLb),
+    // The label rate is a pair: sent when either half is filled in, so a half-filled pair gets its message.
+    seedBag: Number.isFinite(v.seedBag.lb) || Number.isFinite(v.seedBag.acres) ? { lb: num(v.seedBag.lb), acres: num(v.seedBag.acres) } : null,
     killWaitDays: num(v.killWaitDays),
     herbicide: sprays
       ? {
@@ -102,7 +105,7 @@ const resolver: Resolver<PlantingFields> = async (values, context, options) => {
 };
 
 const FIELD_NAMES = [
-  'season', 'method', 'blend', 'targetSeedDate', 'readyBy', 'soilTexture', 'seedBagLb', 'killWaitDays',
+  'season', 'method', 'blend', 'targetSeedDate', 'readyBy', 'soilTexture', 'seedBagLb', 'seedBag.lb', 'seedBag.acres', 'killWaitDays',
   'herbicide.productName', 'herbicide.activeIngredients', 'herbicide.activeIngredients.0', 'herbicide.activeIngredientPct', 'herbicide.rateKind', 'herbicide.rate', 'herbicide.rainfastHours',
   'sprayer', 'sprayer.tankGal', 'sprayer.carrierGalPerAcre',
   'fertilizer.grade', 'fertilizer.grade.0', 'fertilizer.grade.1', 'fertilizer.grade.2', 'fertilizer.target',
@@ -179,6 +182,7 @@ export function PlantingForm({
       readyBy: defaultReadyBy ?? '',
       soilTexture: '',
       seedBagLb: blank,
+      seedBag: { lb: blank, acres: blank },
       killWaitDays: blank,
       useHerbicide: true,
       herbicide: { productName: '', activeIngredients: [], activeIngredientPct: blank, rateKind: 'percent-solution', rate: blank, rainfastHours: blank },
@@ -324,6 +328,20 @@ export function PlantingForm({
                   </option>
                 ))}
               </Select>
+            </Field>
+          </div>
+          <div className="grid gap-4 sm:grid-cols-2">
+            <Field label="Bag label: seed (lb)" htmlFor="seedBag-lb" optional error={e.seedBag?.lb?.message} hint="What the bag's label says plants the acres beside it.">
+              <Input {...numberProps()} {...controlAria('seedBag-lb', e.seedBag?.lb?.message, 'hint')} {...register('seedBag.lb', { valueAsNumber: true })} />
+            </Field>
+            <Field
+              label="Bag label: covers (acres)"
+              htmlFor="seedBag-acres"
+              optional
+              error={e.seedBag?.acres?.message}
+              hint="Into standing cover Sowcast sows twice the label rate; left empty, it keeps to the published broadcast range."
+            >
+              <Input {...numberProps()} {...controlAria('seedBag-acres', e.seedBag?.acres?.message, 'hint')} {...register('seedBag.acres', { valueAsNumber: true })} />
             </Field>
           </div>
         </fieldset>

@@ -4,27 +4,7 @@ import { flOzToGal, galToFlOz, SHORT_TON_LB } from './units';
 
 export type PlantingMethod = 'spray-and-seed' | 'prepared-seedbed' | 'frost-seeding';
 
-/** Multiplier on a seed bag's per-acre (prepared seedbed) rate, by how the seed goes in. */
-export const SEEDING_RATE_MULTIPLIERS: Record<PlantingMethod, { multiplier: number; source: string }> = {
-  'spray-and-seed': {
-    multiplier: 2,
-    source:
-      'common practice, no source: broadcasting into standing, dying cover without soil work loses seed to poor soil ' +
-      'contact and birds, so the trade doubles the bag rate. Extension cover-crop sheets raise rates only about 10–20 % ' +
-      'for broadcast without incorporation (Ohio State University Extension ANR-0129, ANR-0132), over worked soil.',
-  },
-  'prepared-seedbed': {
-    multiplier: 1,
-    source: "the bag's rate is the rate for a prepared seedbed (label convention)",
-  },
-  'frost-seeding': {
-    multiplier: 0.5,
-    source:
-      'common practice, no source: frost seeding clover thickens an existing stand rather than starting one. ' +
-      'Consistent with Ohio State University Extension (Schroeder), frost-seeded red clover at 2–10 lb/acre against ' +
-      '10–12 lb/acre broadcast for a pure stand (ANR-0132).',
-  },
-};
+// The seeding rate itself (lb per acre, by how the seed goes in) comes from lib/agronomy/seeding-rate.ts.
 
 // Virginia Tech SPES-201 (Soil Test Note / nutrient conversions): fertilizer grades state P as P₂O₅ and K as K₂O.
 export const P2O5_TO_P = 0.4365;
@@ -47,23 +27,14 @@ function requirePositive(value: number, what: string): void {
   }
 }
 
-export function seedAmount(o: { ratePerAcreLb: number; acres: number; method: PlantingMethod; bagLb?: number }): {
-  pounds: number;
-  bags?: number;
-  multiplier: number;
-} {
+/** Pounds of seed for a plot at a rate, and whole bags when the bag size is known. */
+export function seedAmount(o: { ratePerAcreLb: number; acres: number; bagLb?: number }): { pounds: number; bags?: number } {
   requirePositive(o.ratePerAcreLb, 'Seeding rate (lb per acre)');
   requirePositive(o.acres, 'Plot size (acres)');
-  const entry = SEEDING_RATE_MULTIPLIERS[o.method];
-  if (!entry) {
-    throw new RangeError(
-      `Unknown planting method "${o.method}"; use one of ${Object.keys(SEEDING_RATE_MULTIPLIERS).join(', ')}.`,
-    );
-  }
-  const pounds = o.ratePerAcreLb * o.acres * entry.multiplier;
-  if (o.bagLb === undefined) return { pounds, multiplier: entry.multiplier };
+  const pounds = o.ratePerAcreLb * o.acres;
+  if (o.bagLb === undefined) return { pounds };
   requirePositive(o.bagLb, 'Seed bag size (lb)');
-  return { pounds, bags: roundUpCount(pounds / o.bagLb), multiplier: entry.multiplier };
+  return { pounds, bags: roundUpCount(pounds / o.bagLb) };
 }
 
 export type SprayProductRate = { percentSolution: number } | { flOzPerAcre: number };

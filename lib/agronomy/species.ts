@@ -34,6 +34,8 @@ export interface Species {
   seedsPerLb: Sourced<number>;
   /** Suited to frost seeding into an existing stand (clovers). */
   frostSeedable: boolean;
+  /** Frost seeding into an existing stand, where a published rate exists (lib/agronomy/seeding-rate.ts uses it). */
+  frostSeedingRateLbPerAcre?: Sourced<[number, number]>;
 }
 
 const MEMORY = 'from memory (general extension guidance, not checked against a publication)';
@@ -58,6 +60,21 @@ const UGA_RADISH = 'University of Georgia, Conservation Tillage: Cover Crops, oi
 const PENN_STATE_CHICORY = 'Penn State Extension, Chicory Establishment (depth ¼–½ in; frost seeding into pasture described)';
 const HARRINGTON =
   'Harrington, Soil Temperature Conditions for Vegetable Seed Germination, as reprinted by Oregon State University Extension';
+// Wildlife food plot guides (rates in lb/acre of pure stands; drill and broadcast given separately).
+const MSU_M1591 =
+  'Mississippi State University Extension M1591, Deer Food Plot Planting Guide for the Southeast (planting rate table, drill and broadcast)';
+const UF_IFAS_TAYLOR =
+  'UF/IFAS Extension Taylor County, Wildlife and Game Food Plots: planting dates, seeding rates and depths for cool-season forage crops (north Florida)';
+const PENN_STATE_WHITE_CLOVER =
+  'Penn State Extension (Forages), White Clover Establishment: no deeper than ¼ in; 2–4 lb/acre into an existing grass pasture';
+// Frost seeding clover into an existing stand. The extension columns are secondary (agents quoting the specialists).
+const FROST_WHITE_CLOVER =
+  'frost seeding 1–2 lb/acre of white clover: University of Kentucky Cooperative Extension county column "Six easy steps … clover frost seeding" (2024, secondary); ' +
+  'Penn State Extension gives 2–4 lb/acre into grass pasture, and University of Missouri Extension (Roberts, quoted 2020) ¼ lb/acre of ladino';
+const FROST_RED_CLOVER =
+  'frost seeding 6–8 lb/acre of red clover: University of Kentucky Cooperative Extension county column (2024: "six pounds of red clover", secondary); ' +
+  'University of Missouri Extension (Roberts, quoted 2020): 8 lb/acre; WVU Extension, Rayburn (1995), Frost and Walk-in Clover Seedings: 2–4 lb/acre when over-seeding every year or two';
+
 const CORNELL_BUCKWHEAT_WEEKS =
   'derived from Cornell University (Björkman): as a cover crop buckwheat is in the ground 35–40 days; rounded up to 6 weeks';
 
@@ -101,14 +118,16 @@ const CATALOG: SpeciesInput[] = [
     lifeCycle: 'perennial',
     minSoilTempF: s(40, MEMORY),
     optimumSoilTempF: s([55, 75], MEMORY),
-    broadcastRateLbPerAcre: s([4, 6], ALABAMA_BALL),
-    drilledRateLbPerAcre: s([3, 4], ALABAMA_BALL),
-    seedDepthIn: s([0.125, 0.25], MEMORY),
+    // The guides differ: 4–6 (Alabama, citing Ball et al.) and 8 (MSU M1591) broadcast; the range spans both.
+    broadcastRateLbPerAcre: s([4, 8], `4–6: ${ALABAMA_BALL}; 8: ${MSU_M1591}`),
+    drilledRateLbPerAcre: s([3, 4], `${ALABAMA_BALL}; ${MSU_M1591}: 4; ${UF_IFAS_TAYLOR}: 3–4`),
+    seedDepthIn: s([0.125, 0.25], `${PENN_STATE_WHITE_CLOVER}; ${UF_IFAS_TAYLOR}: 0–¼ in (⅛ in as the shallow end is from memory)`),
     daysToEmergence: s([5, 10], MEMORY),
     frostTolerance: s('hardy', MEMORY),
     fallWeeksBeforeFirstFrost: s(8, MEMORY),
-    seedsPerLb: s(800_000, MEMORY),
+    seedsPerLb: s(800_000, `${PENN_STATE_WHITE_CLOVER}: about 800,000 seeds per lb`),
     frostSeedable: true,
+    frostSeedingRateLbPerAcre: s([1, 2], FROST_WHITE_CLOVER),
   },
   {
     id: 'red-clover',
@@ -126,6 +145,7 @@ const CATALOG: SpeciesInput[] = [
     fallWeeksBeforeFirstFrost: s(8, MEMORY),
     seedsPerLb: s(272_200, OSU_RED_CLOVER),
     frostSeedable: true, // OSU ANR-0132: "may also be frost-seeded"
+    frostSeedingRateLbPerAcre: s([6, 8], FROST_RED_CLOVER),
   },
   {
     id: 'crimson-clover',
@@ -153,8 +173,8 @@ const CATALOG: SpeciesInput[] = [
     lifeCycle: 'annual',
     minSoilTempF: s(40, MEMORY),
     optimumSoilTempF: s([55, 75], MEMORY),
-    broadcastRateLbPerAcre: s([8, 10], MEMORY),
-    drilledRateLbPerAcre: s([5, 8], MEMORY),
+    broadcastRateLbPerAcre: s([8, 12], `${MSU_M1591}: 12; the lower end from memory`),
+    drilledRateLbPerAcre: s([5, 8], `${MSU_M1591}: 8; the lower end from memory`),
     seedDepthIn: s([0.125, 0.25], MEMORY),
     daysToEmergence: s([5, 10], MEMORY),
     frostTolerance: s('hardy', MEMORY),
@@ -170,8 +190,8 @@ const CATALOG: SpeciesInput[] = [
     lifeCycle: 'annual',
     minSoilTempF: s(40, MEMORY),
     optimumSoilTempF: s([55, 75], MEMORY),
-    broadcastRateLbPerAcre: s([15, 20], MEMORY),
-    drilledRateLbPerAcre: s([12, 15], MEMORY),
+    broadcastRateLbPerAcre: s([15, 20], `${MSU_M1591}: 20; the lower end from memory`),
+    drilledRateLbPerAcre: s([10, 15], `${MSU_M1591}: 10; the upper end from memory`),
     seedDepthIn: s([0.25, 0.5], MEMORY),
     daysToEmergence: s([5, 10], MEMORY),
     frostTolerance: s('light', MEMORY),
@@ -187,8 +207,8 @@ const CATALOG: SpeciesInput[] = [
     lifeCycle: 'perennial',
     minSoilTempF: s(40, `${NDSU_UMN_ALFALFA}: germination begins near 40 °F`),
     optimumSoilTempF: s([60, 77], MEMORY),
-    broadcastRateLbPerAcre: s([15, 20], MEMORY),
-    drilledRateLbPerAcre: s([12, 15], MEMORY),
+    broadcastRateLbPerAcre: s([15, 20], `${MSU_M1591}: 20; the lower end from memory`),
+    drilledRateLbPerAcre: s([12, 15], `${MSU_M1591}: 15; the lower end from memory`),
     seedDepthIn: s([0.25, 0.5], MEMORY),
     daysToEmergence: s([3, 7], MEMORY),
     frostTolerance: s('hardy', MEMORY),
@@ -274,7 +294,7 @@ const CATALOG: SpeciesInput[] = [
     optimumSoilTempF: s([55, 70], MEMORY),
     broadcastRateLbPerAcre: s([90, 160], SARE),
     drilledRateLbPerAcre: s([60, 120], SARE),
-    seedDepthIn: s([0.75, 2], MEMORY),
+    seedDepthIn: s([1, 2], `${UF_IFAS_TAYLOR}: rye for forage 1–2 in`),
     daysToEmergence: s([4, 7], MEMORY),
     frostTolerance: s('hardy', SARE),
     fallWeeksBeforeFirstFrost: s(2, `${COMMON}: rye still establishes when sown close to frost`),
@@ -291,7 +311,7 @@ const CATALOG: SpeciesInput[] = [
     optimumSoilTempF: s([45, 50], NDSU_OPTIMUM),
     broadcastRateLbPerAcre: s([90, 120], ALABAMA_BALL),
     drilledRateLbPerAcre: s([50, 80], ALABAMA_BALL),
-    seedDepthIn: s([1, 1.5], MEMORY),
+    seedDepthIn: s([1, 2], `${UF_IFAS_TAYLOR}: wheat for forage 1–2 in`),
     daysToEmergence: s([5, 10], MEMORY),
     frostTolerance: s('hardy', MEMORY),
     fallWeeksBeforeFirstFrost: s(4, MEMORY),
@@ -306,9 +326,10 @@ const CATALOG: SpeciesInput[] = [
     lifeCycle: 'annual',
     minSoilTempF: s(45, NDSU),
     optimumSoilTempF: s([50, 55], NDSU_OPTIMUM),
-    broadcastRateLbPerAcre: s([80, 100], ALABAMA_BALL),
-    drilledRateLbPerAcre: s([60, 80], MEMORY),
-    seedDepthIn: s([1, 1.5], MEMORY),
+    // The guides differ: 80–100 (Alabama, citing Ball et al.), 96–128 (UF/IFAS), 120–150 (MSU M1591) broadcast.
+    broadcastRateLbPerAcre: s([80, 150], `80–100: ${ALABAMA_BALL}; 120–150: ${MSU_M1591}; ${UF_IFAS_TAYLOR}: 96–128 (3–4 bu)`),
+    drilledRateLbPerAcre: s([90, 100], MSU_M1591),
+    seedDepthIn: s([1, 2], UF_IFAS_TAYLOR),
     daysToEmergence: s([5, 10], MEMORY),
     frostTolerance: s('light', `${MEMORY}: oats winter-kill in hard freezes`),
     fallWeeksBeforeFirstFrost: s(6, MEMORY),
@@ -323,8 +344,8 @@ const CATALOG: SpeciesInput[] = [
     lifeCycle: 'annual',
     minSoilTempF: s(40, `${HARRINGTON}: pea minimum 40 °F`),
     optimumSoilTempF: s([40, 75], `${HARRINGTON}: pea optimum range`),
-    broadcastRateLbPerAcre: s([50, 70], MEMORY),
-    drilledRateLbPerAcre: s([30, 50], MEMORY),
+    broadcastRateLbPerAcre: s([50, 70], `${MSU_M1591}: 50; the upper end from memory`),
+    drilledRateLbPerAcre: s([30, 50], `${MSU_M1591}: 30; the upper end from memory`),
     seedDepthIn: s([1, 2], MEMORY),
     daysToEmergence: s([6, 9], `${HARRINGTON}: pea, days to seedlings at 59–77 °F`),
     frostTolerance: s('hardy', MEMORY),

@@ -3,6 +3,7 @@
 // reseeding has to make up). Pure: plain numbers in, numbers and readable reasons out.
 import { BROADCAST_ESTABLISHMENT_FRACTION, blendProfile, getSpecies, type BlendPart, type Sourced } from './species';
 import type { PlantingMethod } from './quantities';
+import { seedingRate } from './seeding-rate';
 import { SQ_FT_PER_ACRE } from './units';
 
 export type StandVerdict = 'good' | 'fair' | 'poor';
@@ -27,8 +28,8 @@ export const STAND_SOURCES: Record<keyof StandThresholds, string> & {
     '(lib/agronomy/species.ts gives each rate and seed count with its source; 43,560 ft² per acre is the exact definition, NIST Handbook 44 App. C)',
   establishment: BROADCAST_ESTABLISHMENT_FRACTION.source,
   frostSeeding:
-    'frost seeding sows half the bag rate (lib/agronomy/quantities.ts SEEDING_RATE_MULTIPLIERS, common practice, no source), so half the seedlings are expected. ' +
-    'Spray-and-seed doubles the bag rate to make up for seed that never meets soil, so it expects the same stand as the bag rate.',
+    'frost seeding sows the published frost-seeding rate (lib/agronomy/seeding-rate.ts), so the stand expected is what that seed gives. ' +
+    'Spray-and-seed sows more than a prepared seedbed to make up for seed that never meets soil, so it expects the same stand as the broadcast midpoint.',
   goodShareOfExpectedLow:
     "Sowcast's rule, no source: a count at or above the low end of the expected range (30 % of seed making a plant) is a good stand",
   fairShareOfExpectedLow:
@@ -54,15 +55,16 @@ const midpoint = ([low, high]: [number, number]) => (low + high) / 2;
 
 /**
  * The stand a blend should give from its seeding rate: seeds per lb × lb per acre ÷ 43,560 ft² × the share
- * of seed that establishes. `rateMultiplier` is the share of the bag rate that was meant to establish a stand
- * (1 for a full seeding, 0.5 for frost seeding).
+ * of seed that establishes. A full seeding counts the broadcast midpoint (more seed sown into standing cover
+ * makes up for losses); frost seeding counts its published frost-seeding rate.
  */
 export function expectedStand(parts: BlendPart[], method: PlantingMethod, establishment: Sourced<[number, number]> = BROADCAST_ESTABLISHMENT_FRACTION): ExpectedStand {
   blendProfile(parts); // the same refusals as every other use of a blend (unknown species, bad share)
-  const rateMultiplier = method === 'frost-seeding' ? 0.5 : 1;
+  const frost = method === 'frost-seeding' ? new Map(seedingRate(parts, method).parts.map((p) => [p.speciesId, p])) : null;
   const species = parts.map((part) => {
     const s = getSpecies(part.speciesId);
-    const ratePerAcreLb = part.share * midpoint(s.broadcastRateLbPerAcre.value) * rateMultiplier;
+    const frostPart = frost?.get(s.id);
+    const ratePerAcreLb = frostPart ? frostPart.ratePerAcreLb : part.share * midpoint(s.broadcastRateLbPerAcre.value);
     const seedsPerSqFt = (ratePerAcreLb * s.seedsPerLb.value) / SQ_FT_PER_ACRE;
     return {
       speciesId: s.id,
@@ -70,7 +72,7 @@ export function expectedStand(parts: BlendPart[], method: PlantingMethod, establ
       ratePerAcreLb,
       seedsPerLb: s.seedsPerLb.value,
       seedsPerSqFt,
-      source: `rate: ${s.broadcastRateLbPerAcre.source}; seeds per lb: ${s.seedsPerLb.source}`,
+      source: `rate: ${frostPart ? frostPart.source : s.broadcastRateLbPerAcre.source}; seeds per lb: ${s.seedsPerLb.source}`,
     };
   });
   const seedsPerSqFt = species.reduce((sum, s) => sum + s.seedsPerSqFt, 0);

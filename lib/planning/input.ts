@@ -59,6 +59,7 @@ export function buildPlantingInput(
       : null,
     lime: form.lime ? { tonsPerAcre: form.lime.tonsPerAcre, ...(form.lime.bagLb ? { bagLb: form.lime.bagLb } : {}) } : null,
     ...(form.seedBagLb ? { seedBagLb: form.seedBagLb } : {}),
+    ...(form.seedBag ? { seedBag: { lb: form.seedBag.lb, acres: form.seedBag.acres } } : {}),
     upkeep: form.upkeep,
   };
 }

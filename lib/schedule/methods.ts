@@ -5,6 +5,7 @@
 //                     (with the seeding) → check germination
 //   frost seeding:    late-winter broadcast onto frozen ground of an existing stand → check germination
 // A soil test comes ahead of all of them, because lime and fertilizer rates come from it.
+import { largeSeedIn } from '@/lib/agronomy/seed-cover';
 import type { PlantingInput, StepKind } from './types';
 
 export interface SequenceParams {
@@ -86,8 +87,10 @@ export function burns(input: PlantingInput): boolean {
   return input.method === 'prepared-seedbed' && needsBurndown(input) && !!input.burn?.planned && !!input.burn.permitInHand;
 }
 
+/** Covered by default on a prepared seedbed, and in spray-and-seed when the blend holds large seed (lib/agronomy/seed-cover.ts). */
 export function coversSeed(input: PlantingInput): boolean {
-  return input.method !== 'frost-seeding' && (input.coverSeed ?? input.method === 'prepared-seedbed');
+  if (input.method === 'frost-seeding') return false;
+  return input.coverSeed ?? (input.method === 'prepared-seedbed' || largeSeedIn(input.blend).length > 0);
 }
 
 export function rakesOrTills(input: PlantingInput): boolean {

@@ -3,6 +3,7 @@
 // fertilizing, frost seeding). replan does the same against a new forecast while keeping what people did
 // and decided: done, skipped and pinned steps stay; following steps count from the real dates; steps past
 // the forecast keep their dates; each move is reported with its old and new date and why.
+import { coverPurpose } from '@/lib/agronomy/seed-cover';
 import { blendProfile, type BlendProfile } from '@/lib/agronomy/species';
 import { cautionsFor } from './cautions';
 import { indexForecast, inHorizon, daysOfHorizon, type ForecastIndex } from './forecast-days';
@@ -31,6 +32,7 @@ import { seedBeforeRain } from './rules/seed-before-rain';
 import { soilTemperatureOn } from './rules/soil-temperature';
 import { sprayDay, type SprayContext, type SprayDay } from './rules/spray-window';
 import { upkeepSpecs } from './rules/upkeep';
+import { seedStepNotes } from './seeding-notes';
 import { STEP_KINDS } from './step-kinds';
 import { fertilizerQuantities, limeQuantities, seedQuantities, sprayQuantities, DEFAULT_SEED_BAG_LB } from './step-quantities';
 import type { Forecast, Plan, PlanStep, PlantingInput, Quantity, RuleDecision, StepChange, StepKind } from './types';
@@ -157,12 +159,12 @@ function anchorOf(ctx: Ctx, key: string, fallback: string): string {
 
 function quantitiesFor(ctx: Ctx, kind: StepKind): Quantity[] {
   const { input } = ctx;
-  const bagLb = input.seedBagLb ?? DEFAULT_SEED_BAG_LB;
+  const bagLb = input.seedBagLb ?? input.seedBag?.lb ?? DEFAULT_SEED_BAG_LB;
   switch (kind) {
     case 'seed':
-      return seedQuantities(input.blend, input.acres, input.method, bagLb);
+      return seedQuantities(input.blend, input.acres, input.method, bagLb, input.seedBag);
     case 'frost-seed':
-      return seedQuantities(input.blend, input.acres, 'frost-seeding', bagLb);
+      return seedQuantities(input.blend, input.acres, 'frost-seeding', bagLb, input.seedBag);
     case 'spray':
       return sprayQuantities(input);
     case 'fertilize':
@@ -207,7 +209,7 @@ function commit(ctx: Ctx, key: string, kind: StepKind, p: Placement, after?: str
     cautions: cautionsFor(kind),
     reason: p.reason,
     rules: p.rules ?? [],
-    warnings: p.warnings ?? [],
+    warnings: [...(p.warnings ?? []), ...seedStepNotes(ctx.input, key)],
     recurrence: p.recurrence ?? null,
   };
   ctx.placed.set(key, step);
@@ -807,7 +809,7 @@ function schedule(ctx: Ctx): void {
     const seed = effective(ctx, 'seed') ?? seedStep.date;
     placeTied(ctx, 'rake-till', seed, `work the ground the day of seeding (${shortDay(seed)}) so the seed meets fresh soil`);
     placeTied(ctx, 'lime', effective(ctx, 'rake-till') ?? seed, 'spread on the worked ground and work it in; lime works over months, so sooner is better if you can');
-    placeTied(ctx, 'cover-seed', seed, `right after broadcasting (${shortDay(seed)}), for seed-to-soil contact`);
+    placeTied(ctx, 'cover-seed', seed, `right after broadcasting (${shortDay(seed)}), ${coverPurpose(input.blend)}`);
     if (has(ctx, 'fertilize')) {
       if (seedStep.status === 'planned') {
         const v = ctx.fc && inHorizon(ctx.fc, seed) ? fertilizeBeforeRain(ctx.fc, seed, ctx.params.fertilizeBeforeRain) : null;
@@ -824,7 +826,7 @@ function placeSprayAndSeedRest(ctx: Ctx): void {
   const sprayDate = effective(ctx, 'spray');
   placeTied(ctx, 'lime', sprayDate ?? (ctx.placed.get('seed') as PlanStep).date, 'spread on the surface with the spraying; lime works over months, so sooner is better if you can');
   const seed = effective(ctx, 'seed') ?? (ctx.placed.get('seed') as PlanStep).date;
-  placeTied(ctx, 'cover-seed', seed, `right after broadcasting (${shortDay(seed)}), for seed-to-soil contact`);
+  placeTied(ctx, 'cover-seed', seed, `right after broadcasting (${shortDay(seed)}), ${coverPurpose(ctx.input.blend)}`);
   placeCheck(ctx);
   placeFertilizeAhead(ctx, 'once the stand is up (after the germination check)');
 }

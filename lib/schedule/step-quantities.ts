@@ -1,42 +1,47 @@
 // What to carry to the plot for each step, worked out by lib/agronomy/quantities.ts and written as a person
 // reads a list: "17 lb of seed — 2 bags", "2 sprayer fills of 4 gal, 10.2 fl oz of product in each".
 import { fertilizerAmount, limeAmount, seedAmount, sprayMix, type PlantingMethod } from '@/lib/agronomy/quantities';
-import { blendProfile, getSpecies, type BlendPart } from '@/lib/agronomy/species';
-import { formatAmount, formatNumber } from './format';
+import { cultipackAdvice, inoculantReminders } from '@/lib/agronomy/seed-cover';
+import { seedingRate, type SeedBagLabel } from '@/lib/agronomy/seeding-rate';
+import type { BlendPart } from '@/lib/agronomy/species';
+import { formatAmount } from './format';
 import type { PlantingInput, Quantity } from './types';
 
 export const DEFAULT_SEED_BAG_LB = 50;
 
 const bags = (n: number) => `${n} bag${n === 1 ? '' : 's'}`;
 
-export function seedQuantities(parts: BlendPart[], acres: number, method: PlantingMethod, bagLb = DEFAULT_SEED_BAG_LB): Quantity[] {
-  const profile = blendProfile(parts);
-  const total = seedAmount({ ratePerAcreLb: profile.broadcastRateLbPerAcre, acres, method, bagLb });
-  const why =
-    total.multiplier === 1
-      ? ''
-      : method === 'spray-and-seed'
-        ? ` (${formatNumber(total.multiplier, 2)}× the bag rate: broadcast into standing cover)`
-        : ` (${formatNumber(total.multiplier, 2)}× the bag rate: thickening an existing stand)`;
+/** The seed to carry: the blend's pounds and bags with how the rate was chosen, each species' pounds, inoculant and, for small
+ *  seed on a prepared seedbed, the cultipacker. */
+export function seedQuantities(
+  parts: BlendPart[],
+  acres: number,
+  method: PlantingMethod,
+  bagLb = DEFAULT_SEED_BAG_LB,
+  seedBag?: SeedBagLabel | null,
+): Quantity[] {
+  const rate = seedingRate(parts, method, seedBag);
+  const total = seedAmount({ ratePerAcreLb: rate.ratePerAcreLb, acres, bagLb });
   const out: Quantity[] = [
     {
       item: 'seed',
       amount: total.pounds,
       unit: 'lb',
-      detail: `${formatAmount(total.pounds)} lb of seed — ${bags(total.bags ?? 0)}${why}`,
+      detail: `${formatAmount(total.pounds)} lb of seed — ${bags(total.bags ?? 0)} (${rate.how})`,
     },
   ];
+  const pounds = new Map(rate.parts.map((part) => [part.speciesId, part.ratePerAcreLb * acres]));
   if (parts.length > 1) {
-    for (const part of profile.parts) {
-      const species = getSpecies(part.speciesId);
-      const lb = seedAmount({
-        ratePerAcreLb: part.share * ((species.broadcastRateLbPerAcre.value[0] + species.broadcastRateLbPerAcre.value[1]) / 2),
-        acres,
-        method,
-      }).pounds;
-      out.push({ item: species.name, amount: lb, unit: 'lb', detail: `${formatAmount(lb)} lb of ${species.name.toLowerCase()}` });
+    for (const part of rate.parts) {
+      const lb = part.ratePerAcreLb * acres;
+      out.push({ item: part.name, amount: lb, unit: 'lb', detail: `${formatAmount(lb)} lb of ${part.name.toLowerCase()}` });
     }
   }
+  for (const reminder of inoculantReminders(parts, pounds)) {
+    out.push({ item: 'inoculant', amount: reminder.lb, unit: 'lb of seed', detail: reminder.detail });
+  }
+  const cultipack = method === 'prepared-seedbed' ? cultipackAdvice(parts) : null;
+  if (cultipack) out.push({ item: 'cultipacker', amount: 1, unit: 'cultipacker', detail: `A cultipacker or roller. ${cultipack}` });
   return out;
 }
 

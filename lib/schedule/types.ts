@@ -84,6 +84,8 @@ export interface PlantingInput {
   fertilizer?: { grade: [number, number, number]; target: { n?: number; p2o5?: number; k2o?: number }; bagLb?: number } | null;
   lime?: { tonsPerAcre: number; bagLb?: number } | null;
   seedBagLb?: number; // default 50
+  /** What the seed bag's label says it covers (`lb` plants `acres`); sets the seeding rate (lib/agronomy/seeding-rate.ts). */
+  seedBag?: { lb: number; acres: number } | null;
   upkeep?: boolean; // add recurring upkeep (RRULE) steps
   /** Per-planting changes to the rules' documented defaults (see lib/schedule/parameters.ts). */
   parameters?: ScheduleParameterOverrides | null;

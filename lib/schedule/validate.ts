@@ -3,6 +3,7 @@
 // (unknown species, a product rate larger than the spray volume, dates that do not exist).
 import { HERBICIDE_ACTIVE_IDS, isHerbicideActive } from '@/lib/agronomy/herbicides';
 import { fertilizerAmount, limeAmount, sprayMix } from '@/lib/agronomy/quantities';
+import { seedBagRatePerAcreLb } from '@/lib/agronomy/seeding-rate';
 import { blendProfile } from '@/lib/agronomy/species';
 import { FAO56_TABLE_19 } from '@/lib/agronomy/water-balance';
 import { isKnownTimeZone, isLocalDate, isMonthDay } from './local-dates';
@@ -60,6 +61,13 @@ export function plantingInputIssues(input: PlantingInput): string[] {
     issues.push('The kill wait must be a whole number of days from 0 to 90.');
   }
   if (input.seedBagLb !== undefined && (!isNum(input.seedBagLb) || input.seedBagLb <= 0)) issues.push('Seed bag size must be more than 0 lb.');
+  if (input.seedBag != null) {
+    try {
+      seedBagRatePerAcreLb(input.seedBag);
+    } catch (error) {
+      issues.push(messageOf(error));
+    }
+  }
   const acres = isNum(input.acres) && input.acres > 0 ? input.acres : 1;
   if (input.herbicide) {
     if (!input.herbicide.productName?.trim()) issues.push('Name the herbicide product, as on its label.');

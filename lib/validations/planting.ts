@@ -117,6 +117,14 @@ export const plantingSchema = z
       .nullable()
       .optional(),
     seedBagLb: optionalNumber('Seed bag size', 0.5, 200, ' lb'),
+    // What the bag's label says it covers: `lb` of this seed plants `acres` (the seeding rate starts from it).
+    seedBag: z
+      .object({
+        lb: requiredNumber("Seed on the bag's label", 0.1, 500, ' lb'),
+        acres: requiredNumber("Acres the bag's label covers", 0.01, 100, ' acres'),
+      })
+      .nullable()
+      .optional(),
     soilTexture: z.enum(SOIL_TEXTURES, { error: 'Soil texture must be one of the listed kinds' }).optional(),
     upkeep: z.boolean().optional(),
   })

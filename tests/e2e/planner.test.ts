@@ -39,6 +39,9 @@ describe('the plot planner', () => {
     await page.getByLabel('Species 1', { exact: true }).selectOption('white-clover');
     await page.getByLabel('Share', { exact: true }).fill('1');
     await page.getByLabel(/^Seed bag size/).fill('8.5');
+    // The bag's label: 8.5 lb covers one acre.
+    await page.getByLabel(/^Bag label: seed/).fill('8.5');
+    await page.getByLabel(/^Bag label: covers/).fill('1');
     await page.getByLabel('Product name', { exact: true }).fill('Generic glyphosate 41%');
     await page.getByLabel(/^Active ingredient/).fill('41');
     await page.getByLabel('Rate given as', { exact: true }).selectOption('percent-solution');
@@ -52,8 +55,11 @@ describe('the plot planner', () => {
     await preview.waitFor();
     // 0.5 acre × 15 gal/acre = 7.5 gal of spray; a 4-gal tank needs ceil(7.5 / 4) = 2 fills (arithmetic).
     await expect.poll(() => preview.getByText(/2 sprayer fills/).count()).toBeGreaterThan(0);
-    // Broadcasting into standing, sprayed cover at twice the bag rate: common practice, no source.
-    expect(await preview.getByText(/2× the bag rate/).count()).toBeGreaterThan(0);
+    // Broadcasting into standing, sprayed cover at twice the bag's label rate: common practice, no source. Half an
+    // acre at 2 × 8.5 lb/acre is 8.5 lb, one bag (the worked case of the issue).
+    expect(await preview.getByText('8.5 lb of seed — 1 bag (2× the bag rate of 8.5 lb/acre — common practice for seed broadcast into dying cover)').count()).toBeGreaterThan(0);
+    // White clover is a legume: the inoculant reminder is on the list (UF/IFAS Extension SS-AGR-28).
+    expect(await preview.getByText(/Inoculant made for white clover/).count()).toBeGreaterThan(0);
     await screenshot(page, 'planner-preview-desktop');
 
     await page.getByRole('button', { name: 'Save planting' }).click();
@@ -61,7 +67,7 @@ describe('the plot planner', () => {
 
     const planting = page.locator(`section[aria-label="spring ${seedYear} planting"]`).first();
     await planting.waitFor();
-    expect(await planting.getByText(/2× the bag rate/).count()).toBeGreaterThan(0);
+    expect(await planting.getByText(/2× the bag rate of 8\.5 lb\/acre/).count()).toBeGreaterThan(0);
     expect(await planting.getByText(/2 sprayer fills/).count()).toBeGreaterThan(0);
     // "The label is the law" is the U.S. EPA's own phrase for pesticide labels (FIFRA); protective equipment
     // and drift are what every burndown label asks about.

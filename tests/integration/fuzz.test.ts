@@ -186,6 +186,7 @@ const PLANTING_FULL = {
   fertilizer: { grade: [10, 10, 10], target: { n: 40, p2o5: 40, k2o: 40 }, bagLb: 50 },
   lime: { tonsPerAcre: 1, bagLb: 40 },
   seedBagLb: 50,
+  seedBag: { lb: 8.5, acres: 1 },
   soilTexture: 'loam',
   clearBrush: false,
 };
@@ -211,6 +212,8 @@ const plantingFields = (prefix = ''): Record<string, Kind> => ({
   [`${prefix}fertilizer.target.n`]: { t: 'num', min: 0, max: 500, required: false },
   [`${prefix}lime.tonsPerAcre`]: { t: 'num', min: 0.1, max: 10 },
   [`${prefix}seedBagLb`]: { t: 'num', min: 0.5, max: 200, required: false },
+  [`${prefix}seedBag.lb`]: { t: 'num', min: 0.1, max: 500 },
+  [`${prefix}seedBag.acres`]: { t: 'num', min: 0.01, max: 100 },
   [`${prefix}soilTexture`]: { t: 'enum', known: ['sand', 'loamy-sand', 'sandy-loam', 'loam', 'silt-loam', 'silt', 'silty-clay-loam', 'silty-clay', 'clay'], required: false },
   [`${prefix}clearBrush`]: { t: 'bool', required: false },
 });

@@ -102,14 +102,15 @@ describe('a germination check', () => {
     });
     expect(res.status, res.text).toBe(201);
     observationId = res.body.observation.id;
-    // (2 + 3 + 1) / 3 ÷ 1 ft² = 2 per ft² (arithmetic); white clover should give 27.5–55.1 (lib/agronomy/stand.ts).
+    // (2 + 3 + 1) / 3 ÷ 1 ft² = 2 per ft² (arithmetic); white clover at 6 lb/acre (the middle of its published 4–8 lb/acre
+    // broadcast range) should give 33.1–66.1 (lib/agronomy/stand.ts).
     expect(res.body.stand.plantsPerSqFt).toBe(2);
-    expect(res.body.stand.expected.lowPerSqFt).toBeCloseTo(27.55, 1);
+    expect(res.body.stand.expected.lowPerSqFt).toBeCloseTo(33.06, 1);
     expect(res.body.stand.verdict).toBe('poor');
     expect(res.body.observation.photos.map((p: { id: string }) => p.id)).toEqual([photoId]);
     expect(res.body.canAcceptReseed).toBe(false);
     const reseed = res.body.reseed;
-    expect(reseed.rateShare).toBe(1); // 1 − 2 / 41.3 = 95.2 % missing → rounded up to 100 %
+    expect(reseed.rateShare).toBe(1); // 1 − 2 / 49.6 = 96.0 % missing → rounded up to 100 %
     const kinds = reseed.plan.steps.filter((s: { status: string }) => s.status === 'planned').map((s: { kind: string }) => s.kind);
     expect(kinds).toEqual(expect.arrayContaining(['seed', 'cover-seed', 'check-germination']));
     expect(kinds).not.toContain('spray');

@@ -18,6 +18,8 @@ const halfAcreSprayAndSeed = {
   // 15 gal/acre: one 4-gallon fill covers 0.267 acre, a little over a quarter acre.
   sprayer: { tankGal: 4, carrierGalPerAcre: 15 },
   seedBagLb: 8.5,
+  // The bag's label: 8.5 lb covers one acre.
+  seedBag: { lb: 8.5, acres: 1 },
 };
 
 beforeAll(async () => {
@@ -49,9 +51,9 @@ describe('plan preview', () => {
 
     const seed = steps.find((s) => s.kind === 'seed')!;
     const pounds = seed.quantities.find((q) => q.unit === 'lb');
-    // White clover broadcast 4–6 lb/acre (Alabama DCNR / Ball et al.), midpoint 5; into standing cover ×2
-    // (common practice) on 0.5 acre = 5 lb.
-    expect(pounds?.amount).toBeCloseTo(5, 1);
+    // Into standing cover at twice the bag's label rate (common practice): 2 × 8.5 lb/acre × 0.5 acre = 8.5 lb, one bag.
+    expect(pounds?.amount).toBeCloseTo(8.5, 6);
+    expect(pounds?.detail).toContain('2× the bag rate of 8.5 lb/acre');
     expect(await plantingCount()).toBe(0);
   });
 
@@ -61,6 +63,7 @@ describe('plan preview', () => {
     ['bad date', { targetSeedDate: '2027-02-30' }, 'targetSeedDate'],
     ['unknown method', { method: 'helicopter' }, 'method'],
     ['herbicide without sprayer', { sprayer: null }, 'sprayer'],
+    ['bag label covering no acres', { seedBag: { lb: 8.5, acres: 0 } }, 'seedBag.acres'],
   ])('refuses %s with a message naming the field and writes nothing', async (_label, change, field) => {
     const res = await client.post(`/api/plots/${plotId}/plan/preview`, { ...halfAcreSprayAndSeed, ...change });
     expect(res.status).toBe(400);

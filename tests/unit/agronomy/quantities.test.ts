@@ -11,12 +11,10 @@ import {
   kToK2o,
   limeAmount,
   P2O5_TO_P,
-  type PlantingMethod,
   p2o5ToP,
   P_TO_P2O5,
   pToP2o5,
   seedAmount,
-  SEEDING_RATE_MULTIPLIERS,
   sprayMix,
 } from '@/lib/agronomy/quantities';
 
@@ -75,42 +73,25 @@ describe('sprayMix', () => {
 });
 
 describe('seedAmount', () => {
-  it('seed rate doubles into standing cover: an 8.5 lb one-acre bag covers about half an acre (common practice, no source)', () => {
-    expect(SEEDING_RATE_MULTIPLIERS['spray-and-seed'].multiplier).toBe(2);
-    const half = seedAmount({ ratePerAcreLb: 8.5, acres: 0.5, method: 'spray-and-seed', bagLb: 8.5 });
+  // The rate per acre comes from lib/agronomy/seeding-rate.ts (tests/unit/agronomy/seeding-rate.test.ts); this is
+  // the arithmetic: pounds = rate × acres, bags rounded up (derived).
+  it('8.5 lb/acre × 2 on half an acre is 8.5 lb, one 8.5-lb bag; a little more needs a second bag', () => {
+    const half = seedAmount({ ratePerAcreLb: 17, acres: 0.5, bagLb: 8.5 });
     expect(half.pounds).toBeCloseTo(8.5, 12);
     expect(half.bags).toBe(1);
-    expect(half.multiplier).toBe(2);
-    // A little more than half an acre needs a second bag (bags round up).
-    expect(seedAmount({ ratePerAcreLb: 8.5, acres: 0.55, method: 'spray-and-seed', bagLb: 8.5 }).bags).toBe(2);
-    // On a prepared seedbed the same bag covers the full acre (bag rate, multiplier 1).
-    expect(seedAmount({ ratePerAcreLb: 8.5, acres: 1, method: 'prepared-seedbed', bagLb: 8.5 })).toEqual({
-      pounds: 8.5,
-      bags: 1,
-      multiplier: 1,
-    });
-  });
-
-  it('frost seeding into an existing stand uses a reduced rate (0.5, common practice — marked as such)', () => {
-    expect(SEEDING_RATE_MULTIPLIERS['frost-seeding'].multiplier).toBe(0.5);
-    expect(SEEDING_RATE_MULTIPLIERS['frost-seeding'].source).toMatch(/common practice, no source/);
-    expect(seedAmount({ ratePerAcreLb: 6, acres: 2, method: 'frost-seeding' })).toEqual({ pounds: 6, multiplier: 0.5 });
+    expect(seedAmount({ ratePerAcreLb: 17, acres: 0.55, bagLb: 8.5 }).bags).toBe(2);
+    expect(seedAmount({ ratePerAcreLb: 8.5, acres: 1, bagLb: 8.5 })).toEqual({ pounds: 8.5, bags: 1 });
   });
 
   it('gives bags only when a bag size is given', () => {
-    expect(seedAmount({ ratePerAcreLb: 5, acres: 1, method: 'prepared-seedbed' })).not.toHaveProperty('bags');
-    expect(seedAmount({ ratePerAcreLb: 100, acres: 1.2, method: 'prepared-seedbed', bagLb: 50 }).bags).toBe(3);
-  });
-
-  it('every method states where its multiplier comes from', () => {
-    for (const entry of Object.values(SEEDING_RATE_MULTIPLIERS)) expect(entry.source.length).toBeGreaterThan(20);
+    expect(seedAmount({ ratePerAcreLb: 5, acres: 1 })).not.toHaveProperty('bags');
+    expect(seedAmount({ ratePerAcreLb: 100, acres: 1.2, bagLb: 50 }).bags).toBe(3);
   });
 
   it('refuses bad input', () => {
-    expect(() => seedAmount({ ratePerAcreLb: 5, acres: 0, method: 'prepared-seedbed' })).toThrow(RangeError);
-    expect(() => seedAmount({ ratePerAcreLb: 0, acres: 1, method: 'prepared-seedbed' })).toThrow(/Seeding rate/);
-    expect(() => seedAmount({ ratePerAcreLb: 5, acres: 1, method: 'prepared-seedbed', bagLb: 0 })).toThrow(/bag/);
-    expect(() => seedAmount({ ratePerAcreLb: 5, acres: 1, method: 'hydroseed' as never })).toThrow(/planting method/);
+    expect(() => seedAmount({ ratePerAcreLb: 5, acres: 0 })).toThrow(RangeError);
+    expect(() => seedAmount({ ratePerAcreLb: 0, acres: 1 })).toThrow(/Seeding rate/);
+    expect(() => seedAmount({ ratePerAcreLb: 5, acres: 1, bagLb: 0 })).toThrow(/bag/);
   });
 });
 
@@ -184,20 +165,18 @@ describe('limeAmount', () => {
 describe('properties (fast-check)', () => {
   const acres = fc.double({ min: 0.01, max: 200, noNaN: true });
   const pairOfAcres = fc.tuple(acres, acres).map(([a, b]): [number, number] => (a <= b ? [a, b] : [b, a]));
-  const method = fc.constantFrom<PlantingMethod[]>('spray-and-seed', 'prepared-seedbed', 'frost-seeding');
 
   it('seed, spray, fertilizer and lime amounts never fall as the plot grows', () => {
     fc.assert(
       fc.property(
         pairOfAcres,
         fc.double({ min: 0.5, max: 200, noNaN: true }),
-        method,
         fc.integer({ min: 1, max: 60 }),
         fc.double({ min: 5, max: 40, noNaN: true }),
         fc.integer({ min: 1, max: 300 }),
-        ([small, large], ratePerAcreLb, plantingMethod, bagLb, carrierGalPerAcre, tankGal) => {
-          const seedSmall = seedAmount({ ratePerAcreLb, acres: small, method: plantingMethod, bagLb });
-          const seedLarge = seedAmount({ ratePerAcreLb, acres: large, method: plantingMethod, bagLb });
+        ([small, large], ratePerAcreLb, bagLb, carrierGalPerAcre, tankGal) => {
+          const seedSmall = seedAmount({ ratePerAcreLb, acres: small, bagLb });
+          const seedLarge = seedAmount({ ratePerAcreLb, acres: large, bagLb });
           expect(seedLarge.pounds).toBeGreaterThanOrEqual(seedSmall.pounds);
           expect(seedLarge.bags!).toBeGreaterThanOrEqual(seedSmall.bags!);
 

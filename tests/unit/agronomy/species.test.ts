@@ -49,14 +49,21 @@ describe('catalog', () => {
     }
   });
 
-  it('seeding rates match the Alabama DCNR deer manual forage appendix (citing Ball et al.)', () => {
-    expect(getSpecies('white-clover').broadcastRateLbPerAcre.value).toEqual([4, 6]);
+  it('seeding rates match the Alabama DCNR deer manual forage appendix (citing Ball et al.) and MSU Extension M1591', () => {
+    // White clover: 4–6 broadcast, 3–4 drilled (Alabama, citing Ball et al.); 8 broadcast, 4 drilled (MSU M1591,
+    // Deer Food Plot Planting Guide for the Southeast); 3–4 (UF/IFAS Taylor County table). The range spans the guides.
+    expect(getSpecies('white-clover').broadcastRateLbPerAcre.value).toEqual([4, 8]);
+    expect(getSpecies('white-clover').broadcastRateLbPerAcre.source).toMatch(/Alabama.*M1591/);
     expect(getSpecies('white-clover').drilledRateLbPerAcre.value).toEqual([3, 4]);
     expect(getSpecies('red-clover').broadcastRateLbPerAcre.value).toEqual([12, 15]);
     expect(getSpecies('red-clover').drilledRateLbPerAcre.value).toEqual([6, 8]);
     expect(getSpecies('winter-wheat').broadcastRateLbPerAcre.value).toEqual([90, 120]);
     expect(getSpecies('winter-wheat').drilledRateLbPerAcre.value).toEqual([50, 80]);
-    expect(getSpecies('oats').broadcastRateLbPerAcre.value).toEqual([80, 100]);
+    // Oats: 80–100 broadcast (Alabama, citing Ball et al.), 96–128 (UF/IFAS Taylor County), 120–150 broadcast and
+    // 90–100 drilled (MSU M1591): the broadcast range spans the guides.
+    expect(getSpecies('oats').broadcastRateLbPerAcre.value).toEqual([80, 150]);
+    expect(getSpecies('oats').drilledRateLbPerAcre.value).toEqual([90, 100]);
+    expect(getSpecies('oats').seedDepthIn.value).toEqual([1, 2]); // UF/IFAS Taylor County: oats for forage 1–2 in
     expect(getSpecies('forage-rape').broadcastRateLbPerAcre.value).toEqual([10, 12]);
     expect(getSpecies('cowpeas').broadcastRateLbPerAcre.value).toEqual([40, 90]);
     expect(getSpecies('winter-wheat').broadcastRateLbPerAcre.source).toMatch(/Alabama/);
@@ -122,8 +129,8 @@ describe('catalog', () => {
   });
 
   it('expected stands follow from rate × seeds per lb ÷ 43,560 ft² × 30–60 % establishment (derived)', () => {
-    // White clover: 5 lb × 800,000 seeds ÷ 43,560 ft² = 91.8 seeds/ft²; × 0.3 = 27.5, × 0.6 = 55.1.
-    expect(getSpecies('white-clover').expectedStandPlantsPerSqFt.value).toEqual([27.5, 55.1]);
+    // White clover: 6 lb (midpoint of 4–8) × 800,000 seeds ÷ 43,560 ft² = 110.2 seeds/ft²; × 0.3 = 33.1, × 0.6 = 66.1.
+    expect(getSpecies('white-clover').expectedStandPlantsPerSqFt.value).toEqual([33.1, 66.1]);
     // Wheat: 105 lb × 15,000 ÷ 43,560 = 36.2 seeds/ft² → 10.8–21.7.
     expect(getSpecies('winter-wheat').expectedStandPlantsPerSqFt.value).toEqual([10.8, 21.7]);
     expect(getSpecies('white-clover').expectedStandPlantsPerSqFt.source).toMatch(/derived/);
@@ -144,8 +151,8 @@ describe('blendProfile', () => {
     // Minimums: white clover 40 (from memory), chicory 40 (from memory), turnip 45 (OSU ANR-0124) → 45, turnip.
     expect(profile.minSoilTempF).toBe(45);
     expect(profile.limitingSpeciesId).toBe('turnip');
-    // Broadcast midpoints: white clover 5 (Alabama DCNR/Ball 4–6), chicory 4.5, turnip 3.5 (OSU ANR-0124 3–4).
-    expect(profile.broadcastRateLbPerAcre).toBeCloseTo(0.5 * 5 + 0.5 * 4.5 + 0.5 * 3.5, 12);
+    // Broadcast midpoints: white clover 6 (4–8: Alabama DCNR/Ball, MSU M1591), chicory 4.5, turnip 3.5 (OSU ANR-0124 3–4).
+    expect(profile.broadcastRateLbPerAcre).toBeCloseTo(0.5 * 6 + 0.5 * 4.5 + 0.5 * 3.5, 12);
     // Drilled midpoints: 3.5 (Alabama DCNR/Ball 3–4), 3.5, 1.75 (OSU 1.5–2).
     expect(profile.drilledRateLbPerAcre).toBeCloseTo(0.5 * 3.5 + 0.5 * 3.5 + 0.5 * 1.75, 12);
     expect(profile.season).toBe('cool');

@@ -23,14 +23,14 @@ describe('plants per square foot', () => {
 });
 
 describe('expected stand from the seeding rate', () => {
-  it('white clover: 5 lb/acre × 800,000 seeds/lb ÷ 43,560 ft² = 91.8 seeds/ft², 30–60 % establishing (hand arithmetic)', () => {
+  it('white clover: 6 lb/acre × 800,000 seeds/lb ÷ 43,560 ft² = 110.2 seeds/ft², 30–60 % establishing (hand arithmetic)', () => {
     const e = expectedStand([{ speciesId: 'white-clover', share: 1 }], 'prepared-seedbed');
-    expect(e.seedsPerSqFt).toBeCloseTo((5 * 800_000) / 43_560, 6);
-    expect(e.lowPerSqFt).toBeCloseTo(27.548, 2);
-    expect(e.highPerSqFt).toBeCloseTo(55.096, 2);
-    expect(e.midPerSqFt).toBeCloseTo(41.322, 2);
+    expect(e.seedsPerSqFt).toBeCloseTo((6 * 800_000) / 43_560, 6);
+    expect(e.lowPerSqFt).toBeCloseTo(33.058, 2);
+    expect(e.highPerSqFt).toBeCloseTo(66.116, 2);
+    expect(e.midPerSqFt).toBeCloseTo(49.587, 2);
     // The catalog's stand range for the species is the same sum, rounded to 0.1.
-    expect(getSpecies('white-clover').expectedStandPlantsPerSqFt.value).toEqual([27.5, 55.1]);
+    expect(getSpecies('white-clover').expectedStandPlantsPerSqFt.value).toEqual([33.1, 66.1]);
     expect(e.source).toMatch(/43,560/);
     expect(e.source).toMatch(/30–60 %/);
   });
@@ -43,7 +43,7 @@ describe('expected stand from the seeding rate', () => {
     const e = expectedStand(parts, 'spray-and-seed');
     const wheat = getSpecies('winter-wheat');
     const wheatMid = (wheat.broadcastRateLbPerAcre.value[0] + wheat.broadcastRateLbPerAcre.value[1]) / 2;
-    const seeds = (0.5 * 5 * 800_000 + 0.5 * wheatMid * wheat.seedsPerLb.value) / 43_560;
+    const seeds = (0.5 * 6 * 800_000 + 0.5 * wheatMid * wheat.seedsPerLb.value) / 43_560;
     expect(e.seedsPerSqFt).toBeCloseTo(seeds, 6);
     expect(e.species.map((s) => s.speciesId)).toEqual(['white-clover', 'winter-wheat']);
     // Consistent with the blend profile's stand range (the species ranges at their shares), to rounding.
@@ -51,11 +51,15 @@ describe('expected stand from the seeding rate', () => {
     expect(e.lowPerSqFt).toBeCloseTo(profile.expectedStandPlantsPerSqFt[0], 0);
   });
 
-  it('spray-and-seed expects the bag rate’s stand (the doubled seed makes up for losses); frost seeding half of it', () => {
+  it('spray-and-seed expects the broadcast midpoint’s stand (the extra seed makes up for losses); frost seeding its own rate’s', () => {
     const blend = [{ speciesId: 'red-clover', share: 1 }];
     const bag = expectedStand(blend, 'prepared-seedbed');
     expect(expectedStand(blend, 'spray-and-seed').midPerSqFt).toBeCloseTo(bag.midPerSqFt, 9);
-    expect(expectedStand(blend, 'frost-seeding').midPerSqFt).toBeCloseTo(bag.midPerSqFt / 2, 9);
+    // Frost seeding red clover at 7 lb/acre, the middle of the published 6–8 (University of Kentucky Extension column;
+    // University of Missouri Extension, Roberts: 8): 7 × 272,200 ÷ 43,560 = 43.7 seeds/ft² (hand arithmetic).
+    const frost = expectedStand(blend, 'frost-seeding');
+    expect(frost.seedsPerSqFt).toBeCloseTo((7 * 272_200) / 43_560, 6);
+    expect(frost.source).toMatch(/frost-seeding rate/);
     // Red clover 13.5 lb/acre × 272,200 seeds/lb (OSU ANR-0132) ÷ 43,560 = 84.4 seeds/ft².
     expect(bag.seedsPerSqFt).toBeCloseTo(84.36, 1);
   });

@@ -94,7 +94,9 @@ describe('methods', () => {
     const seed = step(plan, 'frost-seed');
     expect(seed.date).toBe('2028-02-23');
     expect(seed.reason).toContain('freeze-thaw');
-    expect(seed.quantities[0].detail).toContain('0.5× the bag rate');
+    // Frost seeding uses the published frost-seeding rate, not a share of a bag rate (red clover 6–8 lb/acre: University
+    // of Kentucky Extension column; University of Missouri Extension, Roberts).
+    expect(seed.quantities[0].detail).toContain('published frost-seeding rate (red clover 6–8 lb/acre)');
     // Seedlings come as the soil warms, around the average last frost.
     expect(step(plan, 'check-germination').date).toBe('2028-04-10');
   });

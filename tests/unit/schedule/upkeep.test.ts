@@ -54,7 +54,8 @@ describe('upkeep', () => {
     const frost = step(planPlanting(clover, null, NOW), 'upkeep-frost-seed');
     // Last frost 10 April; 60 days before 10 April 2028 is 10 February (31 days of March, then 29 of leap-year February).
     expect(frost.date).toBe('2028-02-10');
-    expect(frost.quantities[0].detail).toContain('0.5× the bag rate');
+    // White clover frost-seeded at 1–2 lb/acre (University of Kentucky Extension county column, 2024, secondary).
+    expect(frost.quantities[0].detail).toContain('1.5 lb/acre: the published frost-seeding rate (white clover 1–2 lb/acre)');
   });
 
   it('gives an annual brassica plot only the soil test', () => {
