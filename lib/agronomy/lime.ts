@@ -219,3 +219,53 @@ export function blendTargetPh(parts: readonly BlendPart[]): { targetPh: number; 
   const chosen = best as { targetPh: number; speciesId: string };
   return { ...chosen, name: getSpecies(chosen.speciesId).name };
 }
+
+// ——— a soil test's numbers → a lime rate for a blend ————————————————————————————————————
+
+export interface SoilTestLimeInput {
+  soilPh: number | null;
+  bufferPh?: number | null;
+  bufferMethod?: 'smp' | 'mehlich' | null;
+  acidityMeq?: number | null;
+}
+
+export type SoilTestLime =
+  | { ok: true; tonsPerAcre: number; targetPh: number; speciesName: string; method: LimeMethod; reference: string; basis: string }
+  | { ok: false; reason: string };
+
+/**
+ * The lime rate a soil test's numbers give for a blend: to the blend's strictest target pH, by the Mehlich
+ * acidity when the report has Ac (or a Mehlich buffer pH), else by the SMP table; on ground that is not worked
+ * (`noTill`) the Tri-State half rate for the top 4 in. `ok: false` says what is missing.
+ */
+export function limeForSoilTest(test: SoilTestLimeInput, blend: readonly BlendPart[], o: { noTill?: boolean } = {}): SoilTestLime {
+  if (test.soilPh === null || test.soilPh === undefined) return { ok: false, reason: 'the soil test has no soil pH' };
+  let target: ReturnType<typeof blendTargetPh>;
+  try {
+    target = blendTargetPh(blend.filter((p) => p.speciesId));
+  } catch (error) {
+    if (error instanceof LimeInputError) return { ok: false, reason: 'choose the blend first, so the lime can aim at its target pH' };
+    throw error;
+  }
+  const common = { targetPh: target.targetPh, speciesName: target.name };
+  const acidity = test.acidityMeq ?? (test.bufferMethod === 'mehlich' && test.bufferPh != null ? mehlichAcidityFromBufferPh(test.bufferPh) : null);
+  try {
+    if (acidity !== null && acidity !== undefined) {
+      const tonsPerAcre = limeTonsPerAcre({ method: 'mehlich-acidity', soilPh: test.soilPh, targetPh: target.targetPh, acidityMeq: acidity });
+      const basis = test.acidityMeq != null ? `acidity Ac ${test.acidityMeq}` : `Mehlich buffer pH ${test.bufferPh}`;
+      return { ok: true, tonsPerAcre, method: 'mehlich-acidity', reference: LIME_REFERENCE['mehlich-acidity'].words, basis: `soil pH ${test.soilPh}, ${basis} (NCDA&CS method)`, ...common };
+    }
+    if (test.bufferPh != null && test.bufferMethod !== 'mehlich') {
+      const smpTarget = Math.min(target.targetPh, 6.8);
+      const tonsPerAcre = limeTonsPerAcre({ method: 'smp-buffer', soilPh: test.soilPh, bufferPh: test.bufferPh, targetPh: smpTarget, depth: o.noTill ? 'no-till' : 'tilled' });
+      const assumed = test.bufferMethod === 'smp' ? '' : ' — read as SMP, the buffer most labs use; check your report';
+      const depth = o.noTill ? ', halved for ground that is not worked (top 4 in)' : '';
+      return { ok: true, tonsPerAcre, method: 'smp-buffer', reference: LIME_REFERENCE['smp-buffer'].words, basis: `soil pH ${test.soilPh}, buffer pH ${test.bufferPh} (Tri-State SMP table${depth})${assumed}`, ...common };
+    }
+  } catch (error) {
+    if (error instanceof LimeInputError) return { ok: false, reason: error.message };
+    throw error;
+  }
+  if (test.soilPh >= target.targetPh) return { ok: true, tonsPerAcre: 0, method: 'smp-buffer', reference: LIME_REFERENCE['smp-buffer'].words, basis: `soil pH ${test.soilPh} is at or above the target`, ...common };
+  return { ok: false, reason: 'the soil test has a pH below the target but no buffer pH or acidity (Ac) to size the lime from' };
+}

@@ -15,6 +15,7 @@ import {
   blendTargetPh,
   limeProductTons,
   limeTonsFromEnp,
+  limeForSoilTest,
   limeTonsPerAcre,
   mehlichAcidityFromBufferPh,
   targetPhFor,
@@ -132,5 +133,29 @@ describe('target pH by species', () => {
     expect(blendTargetPh(blend)).toMatchObject({ targetPh: 6.5, speciesId: 'crimson-clover' });
     expect(blendTargetPh([...blend, { speciesId: 'alfalfa', share: 0.1 }]).targetPh).toBe(6.8);
     expect(blendTargetPh([{ speciesId: 'oats', share: 1 }]).targetPh).toBe(6.0);
+  });
+});
+
+describe('a soil test’s numbers → lime for the blend', () => {
+  const clover = [{ speciesId: 'white-clover', share: 1 }];
+  it('uses the NCDA&CS acidity when the report has Ac, aiming at the blend’s target (clover 6.5)', () => {
+    // (6.5 − 5.0)/(6.6 − 5.0) × 1.2 = 1.125 t/acre of standard lime.
+    const r = limeForSoilTest({ soilPh: 5.0, acidityMeq: 1.2 }, clover);
+    expect(r).toMatchObject({ ok: true, method: 'mehlich-acidity', targetPh: 6.5 });
+    expect(r.ok && r.tonsPerAcre).toBeCloseTo(1.125, 9);
+  });
+
+  it('turns a Mehlich buffer pH into Ac, and reads any other buffer pH as SMP (halved when the ground is not worked)', () => {
+    const mehlich = limeForSoilTest({ soilPh: 5.0, bufferPh: 6.3, bufferMethod: 'mehlich' }, clover);
+    expect(mehlich.ok && mehlich.tonsPerAcre).toBeCloseTo(1.125, 9);
+    const smp = limeForSoilTest({ soilPh: 5.6, bufferPh: 6.5, bufferMethod: 'smp' }, clover, { noTill: true });
+    expect(smp).toMatchObject({ ok: true, method: 'smp-buffer', tonsPerAcre: 1.9 }); // 3.8 ÷ 2
+  });
+
+  it('says what is missing instead of guessing', () => {
+    expect(limeForSoilTest({ soilPh: 5.4 }, clover)).toMatchObject({ ok: false, reason: expect.stringContaining('no buffer pH or acidity') });
+    expect(limeForSoilTest({ soilPh: null, bufferPh: 6.4 }, clover)).toMatchObject({ ok: false, reason: expect.stringContaining('no soil pH') });
+    expect(limeForSoilTest({ soilPh: 5.4, bufferPh: 6.4 }, [{ speciesId: '', share: 1 }])).toMatchObject({ ok: false, reason: expect.stringContaining('choose the blend') });
+    expect(limeForSoilTest({ soilPh: 6.7 }, clover)).toMatchObject({ ok: true, tonsPerAcre: 0 });
   });
 });
