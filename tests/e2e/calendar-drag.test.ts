@@ -232,7 +232,8 @@ describe('dragging a step on the season calendar', () => {
     expect(await list.getByRole('link', { name: new RegExp(`${plotName} · Broadcast seed`) }).count()).toBe(1);
     await screenshot(page, 'calendar-drag-phone');
     await context.close();
-  });
+    // Two calendar loads (today's steps, then the seeding's month) and two drags: past a minute under load.
+  }, 150_000);
 
   it('lets a viewer see the steps but not drag one: the mouse moves nothing and no move is sent', async () => {
     const context = await browser.newContext({ viewport: DESKTOP, timezoneId: TZ });
