@@ -345,6 +345,10 @@ export interface SoilTestsTable {
   lab_name: string | null;
   ph: number | null;
   buffer_ph: number | null;
+  /** The buffer the buffer pH was read with; null when the report does not say. */
+  buffer_method: 'smp' | 'mehlich' | null;
+  /** Exchangeable acidity, meq/100 cm³ (the Mehlich "Ac" of the North Carolina lab). */
+  acidity_meq: number | null;
   p_ppm: number | null;
   k_ppm: number | null;
   organic_matter_pct: number | null;

@@ -9,6 +9,7 @@ import { Button } from '@/components/ui/button';
 import { Card, CardHeader } from '@/components/ui/card';
 import { Field, FieldError, Input, Select, controlAria } from '@/components/ui/field';
 import { Notice } from '@/components/ui/notice';
+import { LEGUME_NITROGEN_SOURCE, legumeOnly } from '@/lib/agronomy/nitrogen';
 import { SPECIES } from '@/lib/agronomy/species';
 import { apiFetch } from '@/lib/client/api';
 import { applyServerErrors } from '@/lib/client/forms';
@@ -209,6 +210,11 @@ export function PlantingForm({
   const activeIds = watch('herbicide.activeIngredients');
   const blendRows = watch('blend');
   const sprays = method !== 'frost-seeding' && useHerbicide;
+  const blendNow = watch('blend');
+  // No N is offered for a blend of legumes alone; a value already typed stays visible so it can be cleared.
+  const legumesOnly = legumeOnly(blendNow);
+  const nTyped = watch('fertilizer.target.n');
+  const showN = !legumesOnly || (Number.isFinite(nTyped) && nTyped > 0);
 
   const send = (kind: 'preview' | 'save') =>
     handleSubmit(async (values) => {
@@ -394,11 +400,14 @@ export function PlantingForm({
           <legend className="mb-2 text-base font-semibold">Fertilizer and lime</legend>
           <FillFromSoilTest
             plotId={plotId}
+            blend={() => getValues('blend')}
+            noTill={method !== 'prepared-seedbed'}
             onFill={({ limeTonsPerAcre, target }) => {
               const set = { shouldDirty: true, shouldValidate: true };
-              if (target.n !== null || target.p2o5 !== null || target.k2o !== null) {
+              const n = legumeOnly(getValues('blend')) ? null : target.n;
+              if (n !== null || target.p2o5 !== null || target.k2o !== null) {
                 setValue('useFertilizer', true, set);
-                setValue('fertilizer.target', { n: target.n ?? blank, p2o5: target.p2o5 ?? blank, k2o: target.k2o ?? blank }, set);
+                setValue('fertilizer.target', { n: n ?? blank, p2o5: target.p2o5 ?? blank, k2o: target.k2o ?? blank }, set);
               }
               if (limeTonsPerAcre !== null && limeTonsPerAcre > 0) {
                 setValue('useLime', true, set);
@@ -427,22 +436,37 @@ export function PlantingForm({
                     ['p2o5', 'P₂O₅ target'],
                     ['k2o', 'K₂O target'],
                   ] as const
-                ).map(([key, label]) => {
-                  const err = e.fertilizer?.target?.[key]?.message;
-                  return (
-                    <Field key={key} label={`${label} (lb/acre)`} htmlFor={`fertilizer-target-${key}`} optional error={err}>
-                      <Input {...numberProps()} {...controlAria(`fertilizer-target-${key}`, err)} {...register(`fertilizer.target.${key}`, { valueAsNumber: true })} />
-                    </Field>
-                  );
-                })}
+                )
+                  .filter(([key]) => key !== 'n' || showN)
+                  .map(([key, label]) => {
+                    const err = e.fertilizer?.target?.[key]?.message;
+                    return (
+                      <Field key={key} label={`${label} (lb/acre)`} htmlFor={`fertilizer-target-${key}`} optional error={err}>
+                        <Input {...numberProps()} {...controlAria(`fertilizer-target-${key}`, err)} {...register(`fertilizer.target.${key}`, { valueAsNumber: true })} />
+                      </Field>
+                    );
+                  })}
                 <Field label="Bag size (lb)" htmlFor="fertilizer-bag" optional error={e.fertilizer?.bagLb?.message}>
                   <Input {...numberProps()} {...controlAria('fertilizer-bag', e.fertilizer?.bagLb?.message)} {...register('fertilizer.bagLb', { valueAsNumber: true })} />
                 </Field>
               </div>
               <FieldError message={e.fertilizer?.target?.message} />
+              {legumesOnly ? (
+                <Notice tone={showN ? 'caution' : 'info'} title={showN ? 'No nitrogen for legumes alone' : undefined}>
+                  {showN
+                    ? 'This blend is all legumes: inoculated legumes fix their own nitrogen, and N fertilizer feeds the grass and weeds that crowd them. Clear the N target unless your soil test says otherwise.'
+                    : 'No N target for an all-legume blend: inoculated legumes fix their own nitrogen.'}{' '}
+                  <span className="text-xs text-loam-soft">({LEGUME_NITROGEN_SOURCE.split(' — ')[0]})</span>
+                </Notice>
+              ) : null}
             </div>
           ) : null}
-          <Checkbox id="useLime" label="Spread lime" hint="The tons per acre the soil test recommends." {...register('useLime')} />
+          <Checkbox
+            id="useLime"
+            label="Spread lime"
+            hint="Tons per acre from the soil test (the fill button works it out for the blend's target pH). Lime goes on months before seeding; above 2 t/acre in two halves."
+            {...register('useLime')}
+          />
           {useLime ? (
             <div className="grid grid-cols-2 gap-3">
               <Field label="Lime (tons per acre)" htmlFor="lime-tons" error={e.lime?.tonsPerAcre?.message}>

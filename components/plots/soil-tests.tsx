@@ -5,11 +5,13 @@ import { FileText, Upload, X } from 'lucide-react';
 import { useRef, useState } from 'react';
 import { Button } from '@/components/ui/button';
 import { Card, CardHeader } from '@/components/ui/card';
-import { Field, Input } from '@/components/ui/field';
+import { Field, Input, Select } from '@/components/ui/field';
 import { Notice } from '@/components/ui/notice';
 import { LoadingBlock } from '@/components/ui/skeleton';
 import { apiFetch, ApiError, errorMessage } from '@/lib/client/api';
 import { formatLocalDate, formatNumber } from '@/lib/client/format';
+import { limeForSoilTest } from '@/lib/agronomy/lime';
+import type { BlendPart } from '@/lib/agronomy/species';
 import type { SoilTestDto } from '@/lib/data/soil-tests';
 import { UploadProgress, uploadForm } from './upload-request';
 
@@ -25,6 +27,7 @@ const TYPED = [
   ['labName', 'Lab', 'text'],
   ['ph', 'Soil pH', 'number'],
   ['bufferPh', 'Buffer pH', 'number'],
+  ['acidityMeq', 'Acidity Ac (meq/100 cm³)', 'number'],
   ['pPpm', 'P (ppm)', 'number'],
   ['kPpm', 'K (ppm)', 'number'],
   ['organicMatterPct', 'Organic matter (%)', 'number'],
@@ -35,6 +38,7 @@ const TYPED = [
 ] as const;
 
 const show = (value: number | null, unit = '') => (value === null ? '—' : `${formatNumber(value)}${unit}`);
+const BUFFER_LABELS = { smp: 'SMP', mehlich: 'Mehlich' } as const;
 
 export function SoilTests({ plotId, canManage }: { plotId: string; canManage: boolean }) {
   const queryClient = useQueryClient();
@@ -102,7 +106,11 @@ export function SoilTests({ plotId, canManage }: { plotId: string; canManage: bo
                     {t.labName ? <span className="block text-xs text-loam-soft">{t.labName}</span> : null}
                   </td>
                   <td className="px-1 py-2">{show(t.ph)}</td>
-                  <td className="px-1 py-2">{show(t.bufferPh)}</td>
+                  <td className="px-1 py-2">
+                    {show(t.bufferPh)}
+                    {t.bufferMethod ? <span className="block text-xs text-loam-soft">{BUFFER_LABELS[t.bufferMethod]}</span> : null}
+                    {t.acidityMeq !== null ? <span className="block text-xs text-loam-soft">Ac {formatNumber(t.acidityMeq)}</span> : null}
+                  </td>
                   <td className="px-1 py-2">
                     {show(t.pPpm)} / {show(t.kPpm)}
                   </td>
@@ -166,6 +174,13 @@ export function SoilTests({ plotId, canManage }: { plotId: string; canManage: bo
                     <Input id={`soil-${name}`} name={name} type={type} step={type === 'number' ? 'any' : undefined} inputMode={type === 'number' ? 'decimal' : undefined} disabled={uploading} />
                   </Field>
                 ))}
+                <Field label="Buffer method" htmlFor="soil-bufferMethod" error={fieldErrors.bufferMethod} hint="The buffer the lab used for the buffer pH.">
+                  <Select id="soil-bufferMethod" name="bufferMethod" defaultValue="" disabled={uploading}>
+                    <option value="">Not stated</option>
+                    <option value="smp">SMP (or Sikora)</option>
+                    <option value="mehlich">Mehlich</option>
+                  </Select>
+                </Field>
               </div>
             </fieldset>
           ) : null}
@@ -197,8 +212,38 @@ export interface SoilTestFill {
   target: { n: number | null; p2o5: number | null; k2o: number | null };
 }
 
-/** For the planting form: puts the latest soil test's lime and N–P₂O₅–K₂O recommendations into the form. */
-export function FillFromSoilTest({ plotId, onFill }: { plotId: string; onFill: (fill: SoilTestFill) => void }) {
+/** The lime line of the fill message: the rate worked out for this blend, and the lab's own when it gave one. */
+function limeWords(latest: SoilTestDto, blend: BlendPart[], noTill: boolean): { tons: number | null; text: string } {
+  const lab = latest.limeTonsPerAcre;
+  const computed = limeForSoilTest({ soilPh: latest.ph, bufferPh: latest.bufferPh, bufferMethod: latest.bufferMethod, acidityMeq: latest.acidityMeq }, blend, { noTill });
+  const labText = lab !== null ? ` The lab recommended ${formatNumber(lab)} t/acre.` : '';
+  if (!computed.ok) return { tons: lab, text: lab !== null ? `Lime: the lab's ${formatNumber(lab)} t/acre (Sowcast could not work one out: ${computed.reason}).` : '' };
+  // To the hundredth of a ton (20 lb an acre): finer than any spreader sets.
+  const tons = Math.round(computed.tonsPerAcre * 100) / 100;
+  const rate = tons > 0 ? `${formatNumber(tons)} ${computed.reference}` : 'none needed';
+  return {
+    tons,
+    text: `Lime for this blend (target pH ${formatNumber(computed.targetPh)} for ${computed.speciesName.toLowerCase()}): ${rate}, from ${computed.basis}.${labText} You can type another rate.`,
+  };
+}
+
+/**
+ * For the planting form: puts the latest soil test's lime and N–P₂O₅–K₂O recommendations into the form. The
+ * lime is worked out for the blend's target pH from the test's pH and buffer pH or acidity when it can be.
+ */
+export function FillFromSoilTest({
+  plotId,
+  onFill,
+  blend,
+  noTill = false,
+}: {
+  plotId: string;
+  onFill: (fill: SoilTestFill) => void;
+  /** The blend as the form holds it now. */
+  blend: () => BlendPart[];
+  /** Ground that is not worked (spray-and-seed, frost seeding): lime for the top 4 in. */
+  noTill?: boolean;
+}) {
   const [pending, setPending] = useState(false);
   const [message, setMessage] = useState<{ tone: 'success' | 'error' | 'info'; text: string } | null>(null);
   async function fill() {
@@ -210,8 +255,9 @@ export function FillFromSoilTest({ plotId, onFill }: { plotId: string; onFill: (
         setMessage({ tone: 'info', text: 'This plot has no soil test yet; upload one on the plot page.' });
         return;
       }
+      const lime = limeWords(latest, blend(), noTill);
       const fillWith: SoilTestFill = {
-        limeTonsPerAcre: latest.limeTonsPerAcre,
+        limeTonsPerAcre: lime.tons,
         target: { n: latest.nLbPerAcre, p2o5: latest.p2o5LbPerAcre, k2o: latest.k2oLbPerAcre },
       };
       const given = [fillWith.limeTonsPerAcre, fillWith.target.n, fillWith.target.p2o5, fillWith.target.k2o].some((v) => v !== null);
@@ -221,7 +267,7 @@ export function FillFromSoilTest({ plotId, onFill }: { plotId: string; onFill: (
       }
       onFill(fillWith);
       const when = formatLocalDate(latest.sampledOn) ?? `uploaded ${formatLocalDate(latest.createdAt.slice(0, 10))}`;
-      setMessage({ tone: 'success', text: `Filled from the soil test sampled ${when}. Check the bag grade and sizes.` });
+      setMessage({ tone: 'success', text: `Filled from the soil test sampled ${when}. ${lime.text ? `${lime.text} ` : ''}Check the bag grade and sizes.` });
     } catch (error) {
       setMessage({ tone: 'error', text: errorMessage(error) });
     } finally {

@@ -7,6 +7,7 @@ import * as m0005 from './0005_field_records';
 import * as m0006g from './0006_germination';
 import * as m0007 from './0007_calendar_indexes';
 import * as m0008 from './0008_hard_freeze';
+import * as m0009 from './0009_soil_test_acidity';
 import * as m0010 from './0010_account_security';
 
 // Listed here rather than read from disk, so the same list works under tsx, vitest and Next's bundler.
@@ -20,6 +21,7 @@ export const migrations: Record<string, Migration> = {
   '0006_germination': m0006g,
   '0007_calendar_indexes': m0007,
   '0008_hard_freeze': m0008,
+  '0009_soil_test_acidity': m0009,
   '0010_account_security': m0010,
 };
 

@@ -10,6 +10,8 @@ export interface SoilTestDto {
   labName: string | null;
   ph: number | null;
   bufferPh: number | null;
+  bufferMethod: 'smp' | 'mehlich' | null;
+  acidityMeq: number | null;
   pPpm: number | null;
   kPpm: number | null;
   organicMatterPct: number | null;
@@ -25,7 +27,7 @@ export interface SoilTestDto {
 
 const columns = [
   'soil_tests.id', 'soil_tests.plot_id', 'soil_tests.sampled_on', 'soil_tests.lab_name', 'soil_tests.ph', 'soil_tests.buffer_ph',
-  'soil_tests.p_ppm', 'soil_tests.k_ppm', 'soil_tests.organic_matter_pct', 'soil_tests.lime_tons_per_acre', 'soil_tests.n_lb_per_acre',
+  'soil_tests.buffer_method', 'soil_tests.acidity_meq', 'soil_tests.p_ppm', 'soil_tests.k_ppm', 'soil_tests.organic_matter_pct', 'soil_tests.lime_tons_per_acre', 'soil_tests.n_lb_per_acre',
   'soil_tests.p2o5_lb_per_acre', 'soil_tests.k2o_lb_per_acre', 'soil_tests.recommendation', 'soil_tests.created_at',
   'uploads.id as upload_id', 'uploads.filename', 'uploads.content_type',
 ] as const;
@@ -42,6 +44,8 @@ const toDto = (r: Row): SoilTestDto => ({
   labName: r.lab_name,
   ph: r.ph,
   bufferPh: r.buffer_ph,
+  bufferMethod: r.buffer_method,
+  acidityMeq: r.acidity_meq,
   pPpm: r.p_ppm,
   kPpm: r.k_ppm,
   organicMatterPct: r.organic_matter_pct,
@@ -100,6 +104,8 @@ export async function createSoilTest(o: {
           lab_name: v.labName ?? null,
           ph: v.ph ?? null,
           buffer_ph: v.bufferPh ?? null,
+          buffer_method: v.bufferMethod ?? null,
+          acidity_meq: v.acidityMeq ?? null,
           p_ppm: v.pPpm ?? null,
           k_ppm: v.kPpm ?? null,
           organic_matter_pct: v.organicMatterPct ?? null,

@@ -302,6 +302,9 @@ export interface StepDueInput extends LinkBase {
   carry?: string[];
   /** The step's cautions (spraying, burning, clearing brush), in the engine's words. */
   cautions?: string[];
+  /** Why it sits on this day ("lime now; it needs months to react — …") and the engine's warnings. */
+  reason?: string;
+  warnings?: string[];
 }
 
 export function stepDue(m: StepDueInput): NotifyMessage {
@@ -311,10 +314,12 @@ export function stepDue(m: StepDueInput): NotifyMessage {
   const blocks: Block[] = [
     { kind: 'para', text: `${m.stepTitle} on ${place(m.plotName, m.propertyName)} is due ${day}, ${formatLocalDate(m.date)}${hours}.` },
   ];
+  if (m.reason) blocks.push({ kind: 'para', text: `Why this day: ${m.reason}.` });
   if (m.carry && m.carry.length > 0) {
     blocks.push({ kind: 'para', text: 'What to carry:' }, { kind: 'list', items: m.carry });
   }
-  if (m.cautions && m.cautions.length > 0) blocks.push({ kind: 'caution', lines: m.cautions });
+  const cautions = [...(m.warnings ?? []), ...(m.cautions ?? [])];
+  if (cautions.length > 0) blocks.push({ kind: 'caution', lines: cautions });
   blocks.push({ kind: 'link', label: 'Open the step', url });
   const Day = m.when === 'today' ? 'Today' : 'Tomorrow';
   return build(m, `${Day}: ${m.stepTitle} on ${m.plotName}`, blocks, {

@@ -32,6 +32,9 @@ export interface ReminderStep {
   /** What to carry, one line each. */
   carry?: string[];
   cautions?: string[];
+  /** Why the step sits on its day, and what the engine warns about it, in its words. */
+  reason?: string;
+  warnings?: string[];
   plotId: string;
   plotName: string;
   propertyId: string;
@@ -243,6 +246,8 @@ function dueFields(step: ReminderStep) {
     hours: step.hours ?? null,
     carry: step.carry ?? [],
     cautions: step.cautions ?? [],
+    reason: step.reason,
+    warnings: step.warnings ?? [],
   };
 }
 

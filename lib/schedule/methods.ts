@@ -1,10 +1,12 @@
 // How each planting method orders its steps, and the lead times between them.
 //   spray-and-seed:   clear → spray → seed into the dying cover (same day or within two days) → cover seed →
 //                     check germination → fertilize once the stand is up
-//   prepared seedbed: clear → spray → kill wait → burn → rake/till → lime → seed → cover seed → fertilize
-//                     (with the seeding) → check germination
+//   prepared seedbed: clear → spray → kill wait → burn → fertilize → rake/till (the final pass works the
+//                     fertilizer and lime in) → seed → cover seed → check germination
 //   frost seeding:    late-winter broadcast onto frozen ground of an existing stand → check germination
-// A soil test comes ahead of all of them, because lime and fertilizer rates come from it.
+// A soil test comes ahead of all of them, because lime and fertilizer rates come from it. Lime goes on months
+// ahead of the seeding (rules/lime-timing.ts), on its own date, not with the seeding; a rate above about
+// 2 t/acre goes on in two halves ('lime' and 'lime-second').
 import { largeSeedIn } from '@/lib/agronomy/seed-cover';
 import type { PlantingInput, StepKind } from './types';
 
@@ -97,12 +99,17 @@ export function rakesOrTills(input: PlantingInput): boolean {
   return input.method === 'prepared-seedbed' && (input.rakeOrTill ?? true);
 }
 
+/** A lime rate large enough to go on in two halves. */
+export function splitsLime(input: PlantingInput, splitAboveTonsPerAcre: number): boolean {
+  return !!input.lime && input.lime.tonsPerAcre > splitAboveTonsPerAcre;
+}
+
 export function testsSoil(input: PlantingInput): boolean {
   return input.method !== 'frost-seeding' || !!input.lime || !!input.fertilizer;
 }
 
 /** The steps of a planting in order, each with the keys it follows. Notes explain steps left out. */
-export function methodSteps(input: PlantingInput): { steps: StepTemplate[]; notes: string[] } {
+export function methodSteps(input: PlantingInput, splitAboveTonsPerAcre: number): { steps: StepTemplate[]; notes: string[] } {
   const steps: StepTemplate[] = [];
   const notes: string[] = [];
   const has = (key: string) => steps.some((s) => s.key === key);
@@ -111,10 +118,17 @@ export function methodSteps(input: PlantingInput): { steps: StepTemplate[]; note
   };
   const last = (...keys: string[]) => keys.find((k) => has(k)) ?? null;
 
+  const addLime = (afterLime: (string | null)[], secondAfter: (string | null)[]) => {
+    if (!input.lime) return;
+    add('lime', 'lime', afterLime);
+    if (splitsLime(input, splitAboveTonsPerAcre)) add('lime-second', 'lime', ['lime', ...secondAfter]);
+  };
+
   if (testsSoil(input)) add('soil-test', 'soil-test', []);
   if (input.method === 'frost-seeding') {
-    if (input.lime) add('lime', 'lime', ['soil-test']);
-    add('frost-seed', 'frost-seed', ['lime']);
+    // Lime on the surface of the stand does not hold the frost seeding back.
+    addLime(['soil-test'], []);
+    add('frost-seed', 'frost-seed', []);
     add('check-germination', 'check-germination', ['frost-seed']);
     if (input.fertilizer) add('fertilize', 'fertilize', ['check-germination']);
     if (input.cover !== 'existing-stand') notes.push('Frost seeding thickens an existing stand; on other cover the seed has little to grow into.');
@@ -126,8 +140,8 @@ export function methodSteps(input: PlantingInput): { steps: StepTemplate[]; note
   if (input.method === 'spray-and-seed') {
     if (!needsBurndown(input)) notes.push('Spray-and-seed relies on standing cover to shelter the seed; this plot has none, so nothing is sprayed.');
     if (input.burn?.planned) notes.push('Spray-and-seed leaves the dying cover as mulch for the seed, so no burn is planned.');
-    if (input.lime) add('lime', 'lime', ['soil-test', 'clear-brush']);
-    add('seed', 'seed', ['spray', 'lime', !has('spray') && 'clear-brush']);
+    addLime(['soil-test', 'clear-brush'], []);
+    add('seed', 'seed', ['spray', !has('spray') && 'clear-brush']);
     if (coversSeed(input)) add('cover-seed', 'cover-seed', ['seed']);
     add('check-germination', 'check-germination', [last('cover-seed', 'seed')]);
     if (input.fertilizer) add('fertilize', 'fertilize', ['check-germination']);
@@ -144,11 +158,13 @@ export function methodSteps(input: PlantingInput): { steps: StepTemplate[]; note
     );
   }
   const beforeGround = last('burn', 'kill-wait', 'clear-brush');
-  if (rakesOrTills(input)) add('rake-till', 'rake-till', [beforeGround]);
-  if (input.lime) add('lime', 'lime', [last('rake-till') ?? beforeGround, 'soil-test']);
-  add('seed', 'seed', [last('lime', 'rake-till') ?? beforeGround]);
+  // Lime, its second half and the fertilizer go down before the final seedbed pass, which works them in.
+  addLime(['soil-test', 'clear-brush'], [beforeGround]);
+  if (input.fertilizer) add('fertilize', 'fertilize', [beforeGround]);
+  const groundIn = [beforeGround, 'lime', 'lime-second', 'fertilize'];
+  if (rakesOrTills(input)) add('rake-till', 'rake-till', groundIn);
+  add('seed', 'seed', has('rake-till') ? ['rake-till'] : groundIn);
   if (coversSeed(input)) add('cover-seed', 'cover-seed', ['seed']);
-  if (input.fertilizer) add('fertilize', 'fertilize', [last('cover-seed', 'seed')]);
-  add('check-germination', 'check-germination', [last('fertilize', 'cover-seed', 'seed')]);
+  add('check-germination', 'check-germination', [last('cover-seed', 'seed')]);
   return { steps, notes };
 }

@@ -10,6 +10,7 @@ import { FROST_DEADLINE_DEFAULTS, FROST_DEADLINE_SOURCES, type FrostDeadlinePara
 import { FROZEN_GROUND_DEFAULTS, FROZEN_GROUND_SOURCES, type FrozenGroundParams } from './rules/frozen-ground';
 import { GERMINATION_CHECK_DEFAULTS, GERMINATION_CHECK_SOURCES, type GerminationCheckParams } from './rules/germination-check';
 import { KILL_WAIT_DEFAULTS, KILL_WAIT_SOURCES, type KillWaitParams } from './rules/kill-wait';
+import { LIME_TIMING_DEFAULTS, LIME_TIMING_SOURCES, type LimeTimingParams } from './rules/lime-timing';
 import { SEED_BEFORE_RAIN_DEFAULTS, SEED_BEFORE_RAIN_SOURCES, type SeedBeforeRainParams } from './rules/seed-before-rain';
 import { SOIL_TEMPERATURE_DEFAULTS, SOIL_TEMPERATURE_SOURCES, type SoilTemperatureParams } from './rules/soil-temperature';
 import { SPRAY_WINDOW_DEFAULTS, SPRAY_WINDOW_SOURCES, type SprayWindowParams } from './rules/spray-window';
@@ -28,6 +29,7 @@ export interface ScheduleParameters {
   burnWindow: BurnWindowParams;
   frozenGround: FrozenGroundParams;
   upkeep: UpkeepParams;
+  limeTiming: LimeTimingParams;
 }
 
 export type ScheduleParameterOverrides = { [K in keyof ScheduleParameters]?: Partial<ScheduleParameters[K]> };
@@ -44,6 +46,7 @@ export const DEFAULT_SCHEDULE_PARAMETERS: ScheduleParameters = {
   burnWindow: BURN_WINDOW_DEFAULTS,
   frozenGround: FROZEN_GROUND_DEFAULTS,
   upkeep: UPKEEP_DEFAULTS,
+  limeTiming: LIME_TIMING_DEFAULTS,
 };
 
 export const SCHEDULE_PARAMETER_SOURCES = {
@@ -58,6 +61,7 @@ export const SCHEDULE_PARAMETER_SOURCES = {
   burnWindow: BURN_WINDOW_SOURCES,
   frozenGround: FROZEN_GROUND_SOURCES,
   upkeep: UPKEEP_SOURCES,
+  limeTiming: LIME_TIMING_SOURCES,
 } as const;
 
 /** Defaults, then the planting's overrides; `killWaitDays` on the planting itself wins for the kill wait. */

@@ -4,6 +4,7 @@
 // and decided: done, skipped and pinned steps stay; following steps count from the real dates; steps past
 // the forecast keep their dates; each move is reported with its old and new date and why.
 import { coverPurpose } from '@/lib/agronomy/seed-cover';
+import { legumeNitrogenWarning, legumeOnly } from '@/lib/agronomy/nitrogen';
 import { blendProfile, type BlendProfile } from '@/lib/agronomy/species';
 import { cautionsFor } from './cautions';
 import { indexForecast, inHorizon, daysOfHorizon, type ForecastIndex } from './forecast-days';
@@ -27,6 +28,7 @@ import { frostBounds, frostDeadlineOn, type FrostBounds } from './rules/frost-de
 import { frozenGroundOn } from './rules/frozen-ground';
 import { germinationCheck } from './rules/germination-check';
 import { killWaitDecision, killWaitEnd, killWaitRespected } from './rules/kill-wait';
+import { limeSplit, limeTiming, surfaceSecondHalfDate } from './rules/lime-timing';
 import { killWaitFromActives, plantBackDecision, plantBackEnd, plantBackFor, plantBackWords, sprayAndSeedConflict, type PlantBack } from './rules/plant-back';
 import { seedBeforeRain } from './rules/seed-before-rain';
 import { soilTemperatureOn } from './rules/soil-temperature';
@@ -91,8 +93,10 @@ function buildContext(input: PlantingInput, forecast: Forecast | null, today: st
       planWarnings.push(`The forecast was fetched for ${forecast.timeZone}; Sowcast reads it in the property's zone, ${input.timeZone}.`);
     }
   }
-  const { steps, notes } = methodSteps(input);
+  const { steps, notes } = methodSteps(input, params.limeTiming.splitAboveTonsPerAcre);
   planWarnings.push(...notes);
+  const n = input.fertilizer?.target.n ?? 0;
+  if (n > 0 && legumeOnly(input.blend)) planWarnings.push(legumeNitrogenWarning(n));
   const templates = new Map(steps.map((s) => [s.key, s]));
   return {
     input,
@@ -334,8 +338,10 @@ function decisionsOn(ctx: Ctx, key: string, kind: StepKind, date: string, after?
       if (fc && covered) out.push(burnDay(fc, date, ctx.input, params.burnWindow, ctx.nowMs).decision);
       break;
     case 'rake-till':
-    case 'lime':
       if (sprayEff && ctx.input.method === 'prepared-seedbed') out.push(killWaitRespected(sprayEff, params.killWait.killWaitDays, date));
+      break;
+    case 'lime':
+      if (key === 'lime') out.push(limeTiming(date, ctx.input.targetSeedDate, params.limeTiming).decision);
       break;
     case 'seed': {
       if (sprayEff && ctx.input.method === 'prepared-seedbed') out.push(killWaitRespected(sprayEff, params.killWait.killWaitDays, date));
@@ -362,7 +368,16 @@ function decisionsOn(ctx: Ctx, key: string, kind: StepKind, date: string, after?
       out.push(fc && covered ? frozenGroundOn(fc, date, params.frozenGround).decision : noForecast('frozen-ground', 'broadcast on a frozen morning'));
       break;
     case 'fertilize':
-      out.push(fc && covered ? fertilizeBeforeRain(fc, date, params.fertilizeBeforeRain).decision : noForecast('fertilize-before-rain', 'spread ahead of a soaking rain'));
+      if (workedIn(ctx, date)) {
+        const washout = fc && covered ? fertilizeBeforeRain(fc, date, params.fertilizeBeforeRain).washout : false;
+        out.push({ rule: 'fertilize-before-rain', ok: !washout, reason: 'worked into the seedbed by the final pass, so it does not wait on rain' });
+      } else {
+        out.push(
+          fc && covered
+            ? fertilizeBeforeRain(fc, date, params.fertilizeBeforeRain, carriesNitrogen(ctx)).decision
+            : noForecast('fertilize-before-rain', carriesNitrogen(ctx) ? 'spread just before a good rain (0.5 in or more)' : 'spread ahead of a soaking rain'),
+        );
+      }
       break;
     case 'check-germination': {
       const seedKey = has(ctx, 'frost-seed') ? 'frost-seed' : 'seed';
@@ -406,6 +421,14 @@ function germination(ctx: Ctx, seedDate: string) {
   });
 }
 
+const carriesNitrogen = (ctx: Ctx) => (ctx.input.fertilizer?.grade[0] ?? 0) > 0;
+
+/** Prepared seedbed: fertilizer spread on or before the planned ground work is mixed in by it. */
+function workedIn(ctx: Ctx, date: string): boolean {
+  const till = ctx.placed.get('rake-till');
+  return ctx.input.method === 'prepared-seedbed' && !!till && till.status !== 'skipped' && date <= (effective(ctx, 'rake-till') ?? till.date);
+}
+
 // ——— the steps ————————————————————————————————————————————————————————————————
 
 function defaults(ctx: Ctx) {
@@ -422,16 +445,23 @@ function defaults(ctx: Ctx) {
     spray,
     burn: addDays(target, -seq.burnBeforeSeedDays),
     clear: addDays(has(ctx, 'spray') ? spray : target, -clearLeadDays(ctx)),
-    soilTest: addDays(target, -seq.soilTestLeadDays),
+    soilTest: addDays(target, -soilTestLeadDays(ctx)),
   };
+}
+
+/** With lime planned, the soil test goes early enough for the lab's numbers and six months of lime. */
+function soilTestLeadDays(ctx: Ctx): number {
+  const lime = ctx.params.limeTiming;
+  return ctx.input.lime ? Math.max(ctx.params.sequence.soilTestLeadDays, lime.idealLeadDays + lime.labTurnaroundDays) : ctx.params.sequence.soilTestLeadDays;
 }
 
 function placeSoilTest(ctx: Ctx, d: ReturnType<typeof defaults>): void {
   place(ctx, 'soil-test', () => {
     const date = maxDate(ctx.today, anchorOf(ctx, 'soil-test', d.soilTest));
     const lead = daysBetween(date, d.target);
+    const lime = ctx.params.limeTiming;
     const warnings =
-      ctx.input.lime && lead < ctx.params.sequence.soilTestLeadDays
+      ctx.input.lime && lead < lime.minLeadDays + lime.labTurnaroundDays
         ? [`Only ${Math.max(0, lead)} days before seeding: lime works slowly, so it may not reach its full effect by then.`]
         : [];
     return {
@@ -673,9 +703,65 @@ function placeSprayForSeed(ctx: Ctx): void {
   });
 }
 
-/** Steps tied to the seeding day: worked ground, lime worked in, seed covered, fertilizer spread with it. */
-function placeTied(ctx: Ctx, key: string, desired: string, reason: string): void {
-  place(ctx, key, () => ({ date: maxDate(ctx.today, predecessorsLatest(ctx, key), desired), reason }));
+/**
+ * Lime goes on months before the planned seeding (not the weather-moved one: it does not follow the seeding
+ * around), as soon as the soil test allows; on a prepared seedbed no later than the planned seeding, so the
+ * seedbed work mixes it in. A split rate puts half here and half later (placeLimeSecond).
+ */
+function placeLime(ctx: Ctx): void {
+  place(ctx, 'lime', () => {
+    const { input, params } = ctx;
+    const timing = params.limeTiming;
+    const target = input.targetSeedDate;
+    const soilTest = effective(ctx, 'soil-test');
+    const hardEarliest = maxDate(ctx.today, predecessorsLatest(ctx, 'lime'));
+    let desired = maxDate(addDays(target, -timing.idealLeadDays), soilTest ? addDays(soilTest, timing.labTurnaroundDays) : null);
+    if (input.method === 'prepared-seedbed' && desired > target) desired = target;
+    const date = maxDate(hardEarliest, desired);
+    const verdict = limeTiming(date, target, timing);
+    const tons = (input.lime as { tonsPerAcre: number }).tonsPerAcre;
+    const split = limeSplit(tons, timing);
+    const how =
+      input.method === 'prepared-seedbed'
+        ? 'spread it and disk it in if you can; the seedbed work mixes it in further'
+        : 'spread it on the surface, where it works down slowly';
+    const reason = split.split ? `${verdict.summary}; ${how} — the first half: ${split.why}` : `${verdict.summary}; ${how}`;
+    return {
+      date,
+      reason,
+      warnings: verdict.warning ? [verdict.warning] : [],
+      quantities: limeQuantities({ acres: input.acres, lime: { ...(input.lime as NonNullable<PlantingInput['lime']>), tonsPerAcre: split.halfTonsPerAcre } }),
+    };
+  });
+}
+
+/** The second half of a split rate: with the seedbed work on a prepared seedbed, six months on elsewhere. */
+function placeLimeSecond(ctx: Ctx, groundWork: string | null): void {
+  place(ctx, 'lime-second', () => {
+    const { input, params } = ctx;
+    const split = limeSplit((input.lime as { tonsPerAcre: number }).tonsPerAcre, params.limeTiming);
+    const first = effective(ctx, 'lime') ?? (ctx.placed.get('lime') as PlanStep).date;
+    const quantities = limeQuantities({ acres: input.acres, lime: { ...(input.lime as NonNullable<PlantingInput['lime']>), tonsPerAcre: split.halfTonsPerAcre } });
+    if (groundWork) {
+      const date = maxDate(ctx.today, predecessorsLatest(ctx, 'lime-second'), groundWork);
+      return {
+        date,
+        quantities,
+        reason: `the second half (${split.why}): spread it before the final seedbed pass (${shortDay(date)}) and disk it in`,
+      };
+    }
+    const date = maxDate(ctx.today, predecessorsLatest(ctx, 'lime-second'), surfaceSecondHalfDate(first, params.limeTiming));
+    return {
+      date,
+      quantities,
+      reason: `the second half (${split.why}): about six months after the first (${dayWithMonth(first)}), on the surface`,
+    };
+  });
+}
+
+/** Steps tied to the seeding day: worked ground, seed covered, fertilizer spread with it. */
+function placeTied(ctx: Ctx, key: string, desired: string, reason: string, warnings: string[] = []): void {
+  place(ctx, key, () => ({ date: maxDate(ctx.today, predecessorsLatest(ctx, key), desired), reason, warnings }));
 }
 
 function placeFertilizeAhead(ctx: Ctx, context: string): void {
@@ -685,21 +771,27 @@ function placeFertilizeAhead(ctx: Ctx, context: string): void {
     const latest = addDays(hardEarliest, p.searchDays);
     const base = clampDate(anchorOf(ctx, 'fertilize', hardEarliest), hardEarliest, latest);
     const fc = ctx.fc;
+    const nitrogen = carriesNitrogen(ctx);
     const choice = chooseDay(ctx, hardEarliest, latest, base, (date) => {
-      const v = fertilizeBeforeRain(fc as ForecastIndex, date, p);
+      const v = fertilizeBeforeRain(fc as ForecastIndex, date, p, nitrogen);
       return v.washout ? null : { tier: v.qualifies ? 0 : 2, secondary: 0, extra: v };
     });
-    const v = fc && inHorizon(fc, choice.date) ? fertilizeBeforeRain(fc, choice.date, p) : null;
+    const v = fc && inHorizon(fc, choice.date) ? fertilizeBeforeRain(fc, choice.date, p, nitrogen) : null;
     const reason =
       choice.outcome === 'outside'
-        ? `${context}; ${outsideWords(ctx, choice.date)} — spread ahead of a soaking rain`
+        ? `${context}; ${outsideWords(ctx, choice.date)} — spread ${nitrogen ? 'just before a good rain (0.5 in or more in one rain carries urea nitrogen in)' : 'ahead of a soaking rain'}`
         : choice.outcome === 'beyond'
           ? `${context}; heavy rain through ${through(ctx)}, so placed on the first day past the forecast`
           : v?.qualifies
             ? `${context}; ${v.summary}`
             : `${context}; ${v ? v.summary : 'no rain forecast'}, so it stays on the first suitable day`;
-    return { date: choice.date, window: { earliest: hardEarliest, latest }, reason };
+    return { date: choice.date, window: { earliest: hardEarliest, latest }, reason, warnings: fertilizerWarnings(ctx) };
   });
+}
+
+function fertilizerWarnings(ctx: Ctx): string[] {
+  const n = ctx.input.fertilizer?.target.n ?? 0;
+  return n > 0 && legumeOnly(ctx.input.blend) ? [legumeNitrogenWarning(n)] : [];
 }
 
 function placeCheck(ctx: Ctx): void {
@@ -755,11 +847,10 @@ function schedule(ctx: Ctx): void {
   const { input } = ctx;
   placeSoilTest(ctx, d);
   placeClear(ctx, d);
+  placeLime(ctx);
   if (input.method === 'frost-seeding') {
-    const hardEarliest = maxDate(ctx.today, has(ctx, 'lime') ? effective(ctx, 'soil-test') : null, fixedEffective(ctx, 'lime'));
-    placeSeeding(ctx, 'frost-seed', hardEarliest, null, false);
-    const seed = effective(ctx, 'frost-seed') ?? (ctx.placed.get('frost-seed') as PlanStep).date;
-    placeTied(ctx, 'lime', seed, 'spread with the frost seeding; lime works over months, so sooner is better if you can');
+    placeSeeding(ctx, 'frost-seed', ctx.today, null, false);
+    placeLimeSecond(ctx, null);
     placeCheck(ctx);
     placeFertilizeAhead(ctx, 'once the stand is up');
   } else if (input.method === 'spray-and-seed' && plantBackOutlasts(ctx)) {
@@ -769,8 +860,6 @@ function schedule(ctx: Ctx): void {
       ctx.today,
       sprayEff ? plantBackEnd(sprayEff, ctx.plantBack as PlantBack) : null,
       has(ctx, 'spray') ? null : effective(ctx, 'clear-brush'),
-      has(ctx, 'lime') ? effective(ctx, 'soil-test') : null,
-      fixedEffective(ctx, 'lime'),
     );
     placeSeeding(ctx, 'seed', hardEarliest, null, false);
     notePlantBack(ctx);
@@ -779,11 +868,7 @@ function schedule(ctx: Ctx): void {
     const sprayFixed = has(ctx, 'spray') ? fixedPrior(ctx, 'spray') : null;
     if (sprayFixed) keepFixed(ctx, 'spray', sprayFixed);
     const sprayEff = effective(ctx, 'spray');
-    const hardEarliest = maxDate(
-      sprayEff ? maxDate(ctx.today, sprayEff) : has(ctx, 'spray') ? sprayEarliest(ctx) : maxDate(ctx.today, predecessorsLatest(ctx, 'seed', ['clear-brush'])),
-      has(ctx, 'lime') ? effective(ctx, 'soil-test') : null,
-      fixedEffective(ctx, 'lime'),
-    );
+    const hardEarliest = sprayEff ? maxDate(ctx.today, sprayEff) : has(ctx, 'spray') ? sprayEarliest(ctx) : maxDate(ctx.today, predecessorsLatest(ctx, 'seed', ['clear-brush']));
     const hardLatest = sprayEff ? maxDate(hardEarliest, addDays(sprayEff, ctx.params.sequence.maxSprayToSeedDays)) : null;
     placeSeeding(ctx, 'seed', hardEarliest, hardLatest, has(ctx, 'spray') && !sprayFixed);
     if (has(ctx, 'spray') && !sprayFixed) placeSprayForSeed(ctx);
@@ -798,24 +883,26 @@ function schedule(ctx: Ctx): void {
       burnt ? addDays(burnt, ctx.params.sequence.burnBeforeSeedDays) : null,
       effective(ctx, 'kill-wait'),
       has(ctx, 'spray') ? null : effective(ctx, 'clear-brush'),
+      effective(ctx, 'lime'),
+      fixedEffective(ctx, 'lime-second'),
+      fixedEffective(ctx, 'fertilize'),
       fixedEffective(ctx, 'rake-till'),
-      fixedEffective(ctx, 'lime'),
-      has(ctx, 'lime') ? effective(ctx, 'soil-test') : null,
       effective(ctx, 'spray') && ctx.plantBack ? plantBackEnd(effective(ctx, 'spray') as string, ctx.plantBack) : null,
     );
     placeSeeding(ctx, 'seed', hardEarliest, null, false);
     notePlantBack(ctx);
     const seedStep = ctx.placed.get('seed') as PlanStep;
     const seed = effective(ctx, 'seed') ?? seedStep.date;
-    placeTied(ctx, 'rake-till', seed, `work the ground the day of seeding (${shortDay(seed)}) so the seed meets fresh soil`);
-    placeTied(ctx, 'lime', effective(ctx, 'rake-till') ?? seed, 'spread on the worked ground and work it in; lime works over months, so sooner is better if you can');
-    placeTied(ctx, 'cover-seed', seed, `right after broadcasting (${shortDay(seed)}), ${coverPurpose(input.blend)}`);
+    placeTied(ctx, 'rake-till', seed, `work the ground the day of seeding (${shortDay(seed)}) so the seed meets fresh soil; the pass mixes in the lime and fertilizer spread before it`);
+    const groundWork = effective(ctx, 'rake-till') ?? ctx.placed.get('rake-till')?.date ?? seed;
+    if (has(ctx, 'lime-second')) placeLimeSecond(ctx, groundWork);
     if (has(ctx, 'fertilize')) {
       if (seedStep.status === 'planned') {
-        const v = ctx.fc && inHorizon(ctx.fc, seed) ? fertilizeBeforeRain(ctx.fc, seed, ctx.params.fertilizeBeforeRain) : null;
-        placeTied(ctx, 'fertilize', seed, `with the seeding (${shortDay(seed)})${v ? `; ${v.summary}` : ''}`);
+        const worked = has(ctx, 'rake-till') ? 'so the final seedbed pass works it in (phosphorus and potassium barely move from where they land)' : 'and cover it with the seed';
+        placeTied(ctx, 'fertilize', groundWork, `spread before the seedbed work (${shortDay(groundWork)}) ${worked}`, fertilizerWarnings(ctx));
       } else placeFertilizeAhead(ctx, 'after the seeding');
     }
+    placeTied(ctx, 'cover-seed', seed, `right after broadcasting (${shortDay(seed)}), ${coverPurpose(ctx.input.blend)}`);
     placeCheck(ctx);
   }
   placeUpkeep(ctx);
@@ -823,8 +910,7 @@ function schedule(ctx: Ctx): void {
 
 /** spray-and-seed after the seeding is placed: lime with the spraying, the seed covered, the stand checked and fed. */
 function placeSprayAndSeedRest(ctx: Ctx): void {
-  const sprayDate = effective(ctx, 'spray');
-  placeTied(ctx, 'lime', sprayDate ?? (ctx.placed.get('seed') as PlanStep).date, 'spread on the surface with the spraying; lime works over months, so sooner is better if you can');
+  placeLimeSecond(ctx, null);
   const seed = effective(ctx, 'seed') ?? (ctx.placed.get('seed') as PlanStep).date;
   placeTied(ctx, 'cover-seed', seed, `right after broadcasting (${shortDay(seed)}), ${coverPurpose(ctx.input.blend)}`);
   placeCheck(ctx);
@@ -979,9 +1065,11 @@ function carrySprayWithSeeding(ctx: Ctx, step: PlanStep, date: string): RuleDeci
   return { rule: 'spray-window', ok: false, reason: `no spray window in the ${seq.maxSprayToSeedDays} days before seeding — ${none}` };
 }
 
-/** Steps that go with the seeding (its till, its lime) move with it when it is dragged; what binds the new
- *  day is what they themselves follow. Done and pinned ones stay put and still bind. */
-const MOVES_WITH_SEEDING = new Set(['rake-till', 'lime']);
+/** Steps that go with the seeding (its ground work and what that pass works in: the fertilizer and a split
+ *  lime's second half) move with it when it is dragged; what binds the new day is what they themselves
+ *  follow. Lime itself does not: it goes on months ahead, on its own date. Done and pinned ones stay put and
+ *  still bind. */
+const MOVES_WITH_SEEDING = new Set(['rake-till', 'fertilize', 'lime-second']);
 
 function untiedPredecessors(plan: Plan, step: PlanStep): string[] {
   if (step.kind !== 'seed') return step.after;

@@ -103,7 +103,8 @@ export type RuleName =
   | 'burn-window'
   | 'frozen-ground'
   | 'plant-back'
-  | 'upkeep';
+  | 'upkeep'
+  | 'lime-timing';
 
 /** A rule's verdict on one date. `marginal` marks "allowed, with care" (e.g. Delta T 8–10 °C). */
 export interface RuleDecision {

@@ -46,6 +46,8 @@ const COLUMNS: Column[] = [
     names: ['k', 'potassium', 'mehlich3k', 'm3k', 'mehlichk', 'kmehlich3', 'exchk', 'exchangeablek', 'soilk'],
     units: ['ppm', 'lbPerAcre'], defaultUnit: 'ppm', required: true,
   },
+  // The North Carolina lab's exchangeable acidity, meq/100 cm³ (NCDA&CS: Ac = (6.6 − Mehlich buffer pH) × 4).
+  { field: 'acidityMeq', label: 'exchangeable acidity (Ac)', names: ['ac', 'acidity', 'exchangeableacidity', 'exchacidity', 'acmeq', 'acmeq100cm3'], units: ['none'], defaultUnit: 'none' },
   { field: 'organicMatterPct', label: 'organic matter', names: ['om', 'organicmatter', 'omloi', 'organicmatterloi', 'som', 'soilorganicmatter'], units: ['pct'], defaultUnit: 'pct' },
   {
     field: 'limeTonsPerAcre', label: 'lime recommendation',
@@ -96,6 +98,13 @@ function readHeader(header: string): { key: string; unit: Unit | null; unitText:
     .replace(/₅/g, '5')
     .replace(/[^a-z0-9]/g, '');
   return { key, unit, unitText };
+}
+
+/** The buffer a buffer-pH header names: Sikora's buffer is calibrated to read as SMP (Sikora 2006). */
+function bufferMethodOf(key: string): 'smp' | 'mehlich' | undefined {
+  if (/smp|sikora/.test(key)) return 'smp';
+  if (/mehlich/.test(key)) return 'mehlich';
+  return undefined;
 }
 
 function findColumn(key: string): Column | undefined {
@@ -177,6 +186,7 @@ export function parseSoilTestCsv(text: string): SoilTestValues {
         throw new SoilTestCsvError(`The “${header}” value “${value}” is not a number.`);
       }
       values[column.field] = roundConverted(convert(number, from, column));
+      if (column.field === 'bufferPh' && bufferMethodOf(key)) values.bufferMethod = bufferMethodOf(key);
     }
   }
   for (const column of COLUMNS.filter((c) => c.required)) {

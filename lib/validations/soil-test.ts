@@ -10,6 +10,9 @@ export const soilTestValuesSchema = z
     labName: optionalText('Lab', 120),
     ph: optionalNumber('Soil pH', 3, 10),
     bufferPh: optionalNumber('Buffer pH', 4, 8),
+    bufferMethod: z.enum(['smp', 'mehlich'], { error: 'Buffer method: choose SMP or Mehlich.' }).optional(),
+    // NCDA&CS reports Ac from 0 up; above 30 meq/100 cm³ is a value in the wrong column (from memory).
+    acidityMeq: optionalNumber('Exchangeable acidity (Ac)', 0, 30, ' meq/100 cm³'),
     pPpm: optionalNumber('Phosphorus (P)', 0, 2000, ' ppm'),
     kPpm: optionalNumber('Potassium (K)', 0, 5000, ' ppm'),
     organicMatterPct: optionalNumber('Organic matter', 0, 100, '%'),
@@ -24,9 +27,9 @@ export const soilTestValuesSchema = z
 export type SoilTestValues = z.infer<typeof soilTestValuesSchema>;
 
 export const SOIL_TEST_NUMBER_FIELDS = [
-  'ph', 'bufferPh', 'pPpm', 'kPpm', 'organicMatterPct', 'limeTonsPerAcre', 'nLbPerAcre', 'p2o5LbPerAcre', 'k2oLbPerAcre',
+  'ph', 'bufferPh', 'acidityMeq', 'pPpm', 'kPpm', 'organicMatterPct', 'limeTonsPerAcre', 'nLbPerAcre', 'p2o5LbPerAcre', 'k2oLbPerAcre',
 ] as const;
-export const SOIL_TEST_TEXT_FIELDS = ['sampledOn', 'labName', 'recommendation'] as const;
+export const SOIL_TEST_TEXT_FIELDS = ['sampledOn', 'labName', 'bufferMethod', 'recommendation'] as const;
 
 /** A multipart form's text fields as the schema's input: numbers from their text, blanks left out. */
 export function soilTestFormValues(form: FormData): Record<string, unknown> {

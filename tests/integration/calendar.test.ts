@@ -147,9 +147,10 @@ describe('GET /api/calendar', () => {
   });
 
   it('lists a day’s steps in the plan’s order, not by title', async () => {
-    // A prepared seedbed on tilled ground, with lime, a cover pass and fertilizer: the ground is worked, the lime
-    // worked in, the seed broadcast and covered, the fertilizer spread with the seeding, all on one day (the
-    // method's order, lib/schedule/methods.ts; the order of work itself is common practice, no source). By
+    // A prepared seedbed on tilled ground, with a split lime rate, a cover pass and fertilizer: the second half of
+    // the lime and the fertilizer go down, the final seedbed pass works them in, the seed is broadcast and
+    // covered, all on one day (the method's order, lib/schedule/methods.ts; Virginia Cooperative Extension
+    // 452-703 splits lime above 2 t/acre, the second half disked in; the first half goes on months ahead). By
     // title the day would read Broadcast seed, Cover the seed, Fertilize, Lime, Rake or till.
     // A property of its own, so the other checks' counts on property A stay as they are.
     const property = await createProperty(ownerA.client, { timeZone: 'America/Chicago' });
@@ -160,14 +161,14 @@ describe('GET /api/calendar', () => {
       blend: [{ speciesId: 'white-clover', share: 1 }],
       targetSeedDate: '2027-09-08',
       coverSeed: true,
-      lime: { tonsPerAcre: 1 },
+      lime: { tonsPerAcre: 3 },
       fertilizer: { grade: [13, 13, 13], target: { n: 20 } },
     });
     expect(res.status, res.text).toBe(201);
     const planned = res.body.steps as { id: string; kind: string; date: string }[];
     const seedDay = planned.find((s) => s.kind === 'seed')!.date;
     const sameDay = planned.filter((s) => s.date === seedDay);
-    expect(sameDay.map((s) => s.kind)).toEqual(['rake-till', 'lime', 'seed', 'cover-seed', 'fertilize']);
+    expect(sameDay.map((s) => s.kind)).toEqual(['lime', 'fertilize', 'rake-till', 'seed', 'cover-seed']);
 
     const events = (await calendar(ownerA, `from=${seedDay}&to=${seedDay}&plot=${plot.id}`)).body.events as { stepId: string; title: string; order: number; plantingId: string }[];
     expect(events.map((e) => e.stepId)).toEqual(sameDay.map((s) => s.id));

@@ -43,7 +43,7 @@ describe('soil-test uploads', () => {
     expect(res.status, res.text).toBe(201);
     expect(res.body.soilTest).toMatchObject({
       plotId, sampledOn: '2027-03-14', labName: 'Prairie Soil Lab', ph: 5.6, bufferPh: 6.4, pPpm: 18, kPpm: 95, organicMatterPct: 3.1,
-      limeTonsPerAcre: 2, nLbPerAcre: 40, p2o5LbPerAcre: 60, k2oLbPerAcre: 90,
+      limeTonsPerAcre: 2, nLbPerAcre: 40, p2o5LbPerAcre: 60, k2oLbPerAcre: 90, bufferMethod: 'smp', acidityMeq: null,
     });
     expect(res.body.soilTest.file).toMatchObject({ filename: 'lab-report.csv', contentType: 'text/csv' });
     expect(res.body.soilTest.file.url).toBe(`/api/uploads/${res.body.soilTest.file.uploadId}`);
@@ -53,9 +53,13 @@ describe('soil-test uploads', () => {
   });
 
   it('stores a PDF as it is, with the values typed beside it, and a PNG', async () => {
-    const pdf = await sendForm(owner, `/api/plots/${plotId}/soil-tests`, fileForm('report.pdf', PDF, 'application/octet-stream', { ph: '6.2', limeTonsPerAcre: '1', sampledOn: '2028-02-01', labName: 'Ridge lab' }));
+    const pdf = await sendForm(
+      owner,
+      `/api/plots/${plotId}/soil-tests`,
+      fileForm('report.pdf', PDF, 'application/octet-stream', { ph: '6.2', limeTonsPerAcre: '1', sampledOn: '2028-02-01', labName: 'Ridge lab', bufferPh: '6.3', bufferMethod: 'mehlich', acidityMeq: '1.2' }),
+    );
     expect(pdf.status, pdf.text).toBe(201);
-    expect(pdf.body.soilTest).toMatchObject({ ph: 6.2, limeTonsPerAcre: 1, sampledOn: '2028-02-01', pPpm: null });
+    expect(pdf.body.soilTest).toMatchObject({ ph: 6.2, limeTonsPerAcre: 1, sampledOn: '2028-02-01', pPpm: null, bufferPh: 6.3, bufferMethod: 'mehlich', acidityMeq: 1.2 });
     // The type comes from the bytes, not from the browser's claim.
     expect(pdf.body.soilTest.file.contentType).toBe('application/pdf');
     const png = await sendForm(owner, `/api/plots/${plotId}/soil-tests`, fileForm('photo-of-report.png', new Uint8Array(await picture(40, 30).png().toBuffer()), 'image/png'));
@@ -122,6 +126,9 @@ describe('soil-test uploads', () => {
     }
     const typed = await sendForm(owner, `/api/plots/${plotId}/soil-tests`, fileForm('report.pdf', PDF, 'application/pdf', { ph: '11' }));
     expect(typed.body.fields.ph).toMatch(/Soil pH must be at most 10/);
+    const method = await sendForm(owner, `/api/plots/${plotId}/soil-tests`, fileForm('report.pdf', PDF, 'application/pdf', { bufferMethod: 'woodruff' }));
+    expect(method.status).toBe(400);
+    expect(method.body.fields.bufferMethod).toMatch(/Buffer method: choose SMP or Mehlich/);
     expect((await sendForm(viewer, `/api/plots/${plotId}/soil-tests`, fileForm('lab-report.csv', csv('lab-report.csv')))).status).toBe(403);
     expect(await uploadRowCount(db, plotId)).toBe(rows);
     expect(await db.selectFrom('soil_tests').select('id').where('plot_id', '=', plotId).execute()).toEqual(tests);

@@ -189,6 +189,25 @@ describe('step due', () => {
     expect(today.text).toContain('is due today, Tue 31 Aug');
     expectSettingsLink(today);
   });
+
+  it('says why the step sits on its day and carries the engine’s warnings, as the plan words them', () => {
+    // The lime step's words from lib/schedule/rules/lime-timing.ts (the "lime now" wording).
+    const lime = stepDue({
+      baseUrl,
+      when: 'today',
+      stepId: 'lime-1',
+      stepTitle: 'Lime',
+      plotName: 'Creekside strip',
+      propertyName: 'Hollow Oak Club',
+      date: '2027-08-31',
+      carry: ['2,000 lb of lime — 40 bags'],
+      reason: 'lime now; it needs months to react — expect the full effect next season; spread it on the surface, where it works down slowly',
+      warnings: ['Lime only 14 days before seeding: it needs 3–6 months to react, so this stand gets only part of its effect; expect the full effect next season.'],
+    });
+    expect(lime.text).toContain('Why this day: lime now; it needs months to react — expect the full effect next season');
+    expect(lime.text).toContain('! Lime only 14 days before seeding');
+    expect(lime.html).toContain('expect the full effect next season');
+  });
 });
 
 describe('morning digest', () => {

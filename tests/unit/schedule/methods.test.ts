@@ -1,6 +1,8 @@
 // Step sequences per method, as the issue describes the trade's practice (common practice, no source):
 // spray-and-seed: clear → spray → seed within 0–2 days → check germination → fertilize once up;
-// prepared seedbed: clear → spray → kill wait → burn → rake/till → lime → seed → cover → fertilize → check;
+// prepared seedbed: clear → spray → kill wait → burn → fertilize → rake/till → seed → cover → check, with the
+// lime months ahead (Mississippi State Extension: 3–6 months before planting) and the fertilizer down before
+// the final seedbed pass that works it in (the issue: P and K worked in, not spread after the seed is covered);
 // frost seeding: late-winter broadcast onto frozen ground of an existing stand.
 import { describe, expect, it } from 'vitest';
 import { daysBetween } from '@/lib/schedule/local-dates';
@@ -45,7 +47,7 @@ describe('methods', () => {
     expect(step(plan, 'fertilize').after).toEqual(['check-germination']);
   });
 
-  it('prepared seedbed: spray, kill wait, burn (permit in hand), till, lime, seed, cover, fertilize with the seeding, check', () => {
+  it('prepared seedbed: lime months ahead, then spray, kill wait, burn (permit in hand), fertilize, till, seed, cover, check', () => {
     const plan = planPlanting(
       planting({
         cover: 'grass-weeds',
@@ -58,13 +60,19 @@ describe('methods', () => {
       null,
       localNoon('2027-05-01'),
     );
-    expect(keys(plan)).toEqual(['soil-test', 'spray', 'kill-wait', 'burn', 'rake-till', 'lime', 'seed', 'cover-seed', 'fertilize', 'check-germination']);
+    // Until this issue the lime went on with the seedbed work, the day of seeding, and the fertilizer after the
+    // seed was covered; both were wrong (lime needs months; P and K must be worked in).
+    expect(keys(plan)).toEqual(['soil-test', 'lime', 'spray', 'kill-wait', 'burn', 'fertilize', 'rake-till', 'seed', 'cover-seed', 'check-germination']);
     const d = (k: string) => step(plan, k).date;
     expect(daysBetween(d('spray'), d('kill-wait'))).toBe(14);
     expect(d('burn') >= d('kill-wait')).toBe(true);
     expect(d('seed') > d('burn')).toBe(true);
     expect(d('fertilize')).toBe(d('seed'));
     expect(d('rake-till')).toBe(d('seed'));
+    // The soil test went on today; the lab's numbers two weeks later; the lime then, 128 days before seeding.
+    expect(d('soil-test')).toBe('2027-05-01');
+    expect(d('lime')).toBe('2027-05-15');
+    expect(step(plan, 'rake-till').after).toEqual(['burn', 'lime', 'fertilize']);
     expect(step(plan, 'lime').warnings).toEqual([]);
     expect(step(plan, 'soil-test').warnings).toEqual([]);
   });

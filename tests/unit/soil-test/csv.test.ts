@@ -24,6 +24,7 @@ describe('parseSoilTestCsv', () => {
       labName: 'Prairie Soil Lab',
       ph: 5.6,
       bufferPh: 6.4,
+      bufferMethod: 'smp', // the header says "Buffer pH (SMP)"
       pPpm: 18,
       kPpm: 95,
       organicMatterPct: 3.1,
@@ -55,6 +56,15 @@ describe('parseSoilTestCsv', () => {
   it('accepts common header spellings', () => {
     const values = parseSoilTestCsv('Water pH,Mehlich 3 P,Exch K,Organic Matter,Aglime (t/ac),Potash\n5.9,12,88,2.2,1.5,120');
     expect(values).toEqual({ ph: 5.9, pPpm: 12, kPpm: 88, organicMatterPct: 2.2, limeTonsPerAcre: 1.5, k2oLbPerAcre: 120 });
+  });
+
+  it('reads the North Carolina lab’s acidity (Ac) and which buffer the buffer pH came from', () => {
+    // NCDA&CS reports Ac in meq/100 cm³ beside a Mehlich buffer pH; Ac = (6.6 − 6.3) × 4 = 1.2 for this sample.
+    const nc = parseSoilTestCsv('pH,Mehlich buffer pH,Ac,P,K\n5.2,6.3,1.2,40,80');
+    expect(nc).toEqual({ ph: 5.2, bufferPh: 6.3, bufferMethod: 'mehlich', acidityMeq: 1.2, pPpm: 40, kPpm: 80 });
+    expect(soilTestValuesSchema.safeParse(nc).success).toBe(true);
+    expect(parseSoilTestCsv('pH,SMP buffer pH,P,K\n5.6,6.4,20,100')).toMatchObject({ bufferMethod: 'smp' });
+    expect(parseSoilTestCsv('pH,Buffer pH,P,K\n5.6,6.4,20,100').bufferMethod).toBeUndefined();
   });
 
   it('names a missing column', () => {
