@@ -99,8 +99,12 @@ const publicOnlyLookup: LookupFunction = (hostname, options, callback) => {
 
 let agent: https.Agent | null = null;
 
-/** The worker's agent for push requests: keep-alive, and the lookup above. */
+/**
+ * The worker's agent for push requests: the lookup above, and a fresh connection per request as web-push makes
+ * by default. A kept-alive socket that the push service has closed while idle fails the next send with "socket
+ * hang up" (seen in the two-worker test), which would delay a reminder to its retry.
+ */
 export function pushAgent(): https.Agent {
-  agent ??= new https.Agent({ keepAlive: true, lookup: publicOnlyLookup });
+  agent ??= new https.Agent({ keepAlive: false, lookup: publicOnlyLookup });
   return agent;
 }
